@@ -1,0 +1,57 @@
+// skein: constellation coverage and station-keeping budget calculator. The CLI is the only place that
+// prints; it catches every error at the top (error policy in lib/skein/error.hpp).
+#include <cassert>
+#include <cstdio>
+#include <exception>
+#include <iostream>
+#include <map>
+
+#include "commands.hpp"
+#include "skein/error.hpp"
+
+namespace skein::cli {
+
+void add_format_option(CLI::App& cmd, std::string& format) {
+  cmd.add_option("--format", format, "Output format: table (aligned text), csv, or json")
+      ->check(CLI::IsMember({"table", "csv", "json"}))
+      ->capture_default_str();
+}
+
+OutputFormat format_of(const std::string& format) {
+  const auto f = output_format_from_string(format);
+  assert(f && "--format is checked by CLI11");
+  return *f;
+}
+
+void print_stdout(const std::string& text) {
+  std::fwrite(text.data(), 1, text.size(), stdout);
+  std::fflush(stdout);
+}
+
+void print_stderr(const std::string& text) {
+  std::fwrite(text.data(), 1, text.size(), stderr);
+  std::fflush(stderr);
+}
+
+}  // namespace skein::cli
+
+int main(int argc, char** argv) {
+  CLI::App app{"skein: constellation coverage and station-keeping budget calculator.\n"
+               "Reads a YAML design of shells, planes and phasing; reports J2 drift, coverage and delta-v budgets."};
+  app.set_version_flag("--version", std::string("skein ") + SKEIN_VERSION);
+  app.require_subcommand(1);
+  skein::cli::add_check_command(app);
+  skein::cli::add_drift_command(app);
+  try {
+    app.parse(argc, argv);
+  } catch (const CLI::ParseError& e) {
+    return app.exit(e);
+  } catch (const skein::InputError& e) {
+    std::cerr << "skein: error: " << e.what() << "\n";
+    return 2;
+  } catch (const std::exception& e) {
+    std::cerr << "skein: internal error: " << e.what() << "\n";
+    return 3;
+  }
+  return 0;
+}

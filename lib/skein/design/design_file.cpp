@@ -1,0 +1,205 @@
+#include "skein/design/design_file.hpp"
+
+#include <cmath>
+#include <set>
+
+#include <fmt/format.h>
+
+#include "skein/design/yaml_reader.hpp"
+#include "skein/orbit/sun_synchronous.hpp"
+#include "skein/time/sun.hpp"
+
+namespace skein {
+namespace {
+
+using yaml::MapReader;
+
+constexpr double max_semi_major_axis_km = 500000.0;  // beyond the Moon's distance the J2 model is meaningless
+
+Spacecraft read_spacecraft(const MapReader& root) {
+  const MapReader m = root.map("spacecraft", {"dry_mass_kg", "drag_area_m2", "drag_coefficient", "isp_s",
+                                              "propellant_capacity_kg"});
+  Spacecraft sc;
+  sc.dry_mass_kg = m.number("dry_mass_kg", 0.01, 1e6, "a dry mass in kg");
+  sc.drag_area_m2 = m.number("drag_area_m2", 1e-4, 1e4, "a drag reference area in m^2 (above zero)");
+  sc.drag_coefficient = m.number("drag_coefficient", 0.1, 10.0, "a drag coefficient (typically 2.0 to 2.4)");
+  sc.isp_s = m.optional_number("isp_s", 1.0, 1e5, "a specific impulse in s");
+  sc.propellant_capacity_kg = m.optional_number("propellant_capacity_kg", 0.0, 1e6, "a tank capacity in kg");
+  return sc;
+}
+
+void read_orbit(const MapReader& m, const EarthModel& earth, Shell& shell) {
+  const bool has_alt = m.has("altitude_km"), has_a = m.has("semi_major_axis_km");
+  if (has_alt == has_a)
+    m.fail(m.self(), m.path(), has_alt ? "give altitude_km or semi_major_axis_km, not both"
+                                       : "missing the orbit size; expected altitude_km or semi_major_axis_km");
+  if (has_alt) {
+    shell.a_km = earth.radius_km + m.number("altitude_km", -earth.radius_km, max_semi_major_axis_km,
+                                            "an altitude above the equatorial radius in km");
+  } else {
+    shell.a_km = m.number("semi_major_axis_km", 1.0, max_semi_major_axis_km, "a semi-major axis in km");
+  }
+  shell.e = m.optional_number("eccentricity", 0.0, 1e9, "an eccentricity, 0 <= e < 1").value_or(0.0);
+  if (shell.e >= 1.0)
+    m.fail_key("eccentricity", fmt::format("eccentricity {} is not a closed orbit; expected 0 <= e < 1", shell.e));
+  shell.argp_deg = m.optional_number("arg_perigee_deg", -360.0, 360.0, "an argument of perigee in degrees").value_or(0.0);
+  const double perigee_alt = shell.a_km * (1.0 - shell.e) - earth.radius_km;
+  if (perigee_alt < minimum_perigee_altitude_km)
+    m.fail(m.node(has_alt ? "altitude_km" : "semi_major_axis_km"), m.path(),
+           fmt::format("perigee altitude {:.1f} km is below {} km; expected an orbit that clears the atmosphere",
+                       perigee_alt, minimum_perigee_altitude_km));
+}
+
+void read_inclination(const MapReader& m, const EarthModel& earth, const UtcEpoch& epoch, Shell& shell) {
+  const YAML::Node inc = m.node("inclination_deg");
+  if (inc.IsScalar() && inc.Scalar() == "sun-synchronous") {
+    shell.sun_synchronous = true;
+    const auto i = sun_synchronous_inclination_rad(earth, shell.a_km, shell.e);
+    if (!i)
+      m.fail(inc, m.path_of("inclination_deg"),
+             fmt::format("no sun-synchronous inclination exists for a = {:.1f} km, e = {}: J2 cannot turn the node "
+                         "fast enough above about 12350 km (circular); expected a lower orbit or a number of degrees",
+                         shell.a_km, shell.e));
+    shell.inclination_deg = *i * deg_per_rad;
+    if (shell.pattern != PatternKind::explicit_planes) {
+      if (!m.has("ltan"))
+        m.fail(m.self(), m.path(), "a sun-synchronous shell needs ltan, the local time of the first plane's ascending node, e.g. \"10:30\"");
+      if (m.has("raan_deg"))
+        m.fail_key("raan_deg", "a sun-synchronous shell sets its first node from ltan; remove raan_deg");
+    }
+  } else {
+    shell.inclination_deg = yaml::scalar_number(m.file(), inc, m.path_of("inclination_deg"), 0.0, 180.0,
+                                                "an inclination in degrees (0 to 180) or sun-synchronous");
+    if (m.has("ltan")) m.fail_key("ltan", "ltan applies only to sun-synchronous shells; use raan_deg for the first node");
+  }
+  if (m.has("ltan")) {
+    const std::string t = m.string("ltan", "a local time \"HH:MM\"");
+    const auto h = parse_local_time_h(t);
+    if (!h) m.fail_key("ltan", fmt::format("\"{}\" is not a local time; expected \"HH:MM\" from 00:00 to 23:59", t));
+    shell.ltan_h = *h;
+    shell.raan0_deg = node_for_local_time_rad(*h, julian_date(epoch)) * deg_per_rad;
+  } else {
+    shell.raan0_deg = m.optional_number("raan_deg", -360.0, 360.0, "the first plane's node in degrees").value_or(0.0);
+  }
+}
+
+void read_walker(const MapReader& m, Shell& shell) {
+  shell.satellites = static_cast<int>(m.integer("satellites", 1, 100000, "the total number of satellites T"));
+  shell.planes = static_cast<int>(m.integer("planes", 1, 100000, "the number of planes P"));
+  shell.phasing = static_cast<int>(m.integer("phasing", -1000000, 1000000, "the relative phasing F"));
+  if (shell.satellites % shell.planes != 0)
+    m.fail_key("planes", fmt::format("T = {} satellites do not divide into P = {} equal planes; expected P to divide T",
+                                     shell.satellites, shell.planes));
+  if (shell.phasing < 0 || shell.phasing > shell.planes - 1)
+    m.fail_key("phasing", fmt::format("F = {} is outside 0..P-1 = 0..{}", shell.phasing, shell.planes - 1));
+}
+
+void read_explicit(const MapReader& m, const UtcEpoch& epoch, Shell& shell) {
+  const auto planes = m.sequence("planes");
+  int count = 0;
+  for (size_t p = 0; p < planes.size(); ++p) {
+    const std::string path = fmt::format("{}[{}]", m.path_of("planes"), p);
+    const MapReader pm(m.file(), planes[p], path, {"raan_deg", "ltan", "slots_deg"});
+    ExplicitPlane plane;
+    if (pm.has("ltan") == pm.has("raan_deg"))
+      pm.fail(pm.self(), path, "give the plane's node as raan_deg or (sun-synchronous shells) ltan, exactly one");
+    if (pm.has("ltan")) {
+      if (!shell.sun_synchronous) pm.fail_key("ltan", "ltan applies only to sun-synchronous shells; use raan_deg");
+      const std::string t = pm.string("ltan", "a local time \"HH:MM\"");
+      const auto h = parse_local_time_h(t);
+      if (!h) pm.fail_key("ltan", fmt::format("\"{}\" is not a local time; expected \"HH:MM\"", t));
+      plane.raan_deg = node_for_local_time_rad(*h, julian_date(epoch)) * deg_per_rad;
+    } else {
+      plane.raan_deg = pm.number("raan_deg", -360.0, 360.0, "a node right ascension in degrees");
+    }
+    const auto slots = pm.sequence("slots_deg");
+    for (size_t k = 0; k < slots.size(); ++k)
+      plane.slots_deg.push_back(yaml::scalar_number(m.file(), slots[k], fmt::format("{}.slots_deg[{}]", path, k),
+                                                    -360.0, 360.0, "an argument of latitude in degrees"));
+    count += static_cast<int>(plane.slots_deg.size());
+    shell.explicit_planes.push_back(std::move(plane));
+  }
+  shell.planes = static_cast<int>(shell.explicit_planes.size());
+  shell.satellites = count;
+}
+
+Shell read_shell(const std::string& file, const YAML::Node& node, const std::string& path, const EarthModel& earth,
+                 const UtcEpoch& epoch) {
+  // Which keys are allowed depends on the pattern, so read it first from a permissive view.
+  static const std::vector<std::string_view> common = {"name", "pattern", "altitude_km", "semi_major_axis_km",
+                                                       "eccentricity", "arg_perigee_deg", "inclination_deg", "ltan"};
+  std::vector<std::string_view> all = common;
+  for (auto k : {"satellites", "planes", "phasing", "raan_deg"}) all.push_back(k);
+  const MapReader probe(file, node, path, all);
+  Shell shell;
+  shell.name = probe.string("name", "a shell name");
+  for (char c : shell.name)
+    if (!(std::isalnum(static_cast<unsigned char>(c)) || c == '-' || c == '_'))
+      probe.fail_key("name", fmt::format("shell name \"{}\" has the character '{}'; expected letters, digits, - and _",
+                                         shell.name, c));
+  const std::string pattern = probe.choice("pattern", {"walker-delta", "walker-star", "explicit"});
+  shell.pattern = *pattern_kind_from_string(pattern);
+  std::vector<std::string_view> allowed = common;
+  if (shell.pattern == PatternKind::explicit_planes) {
+    allowed.push_back("planes");
+  } else {
+    for (auto k : {"satellites", "planes", "phasing", "raan_deg"}) allowed.push_back(k);
+  }
+  const MapReader m(file, node, path, allowed);
+  read_orbit(m, earth, shell);
+  read_inclination(m, earth, epoch, shell);
+  if (shell.pattern == PatternKind::explicit_planes)
+    read_explicit(m, epoch, shell);
+  else
+    read_walker(m, shell);
+  return shell;
+}
+
+Design read_design(const YAML::Node& root_node, const std::string& file) {
+  const MapReader root(file, root_node, "", {"name", "epoch", "earth", "spacecraft", "shells", "coverage", "budget"});
+  Design d;
+  d.file = file;
+  d.name = root.string("name", "a design name");
+  const std::string epoch_text = root.string("epoch", "a UTC epoch");
+  const auto epoch = parse_utc_iso8601(epoch_text);
+  if (!epoch)
+    root.fail_key("epoch", fmt::format("\"{}\" is not a UTC epoch; expected ISO 8601 like 2027-03-01T00:00:00Z", epoch_text));
+  d.epoch = *epoch;
+  if (root.has("earth")) {
+    std::vector<std::string_view> names;
+    for (const auto& m : earth_models) names.push_back(m.name);
+    d.earth = *earth_model_from_string(root.choice("earth", names));
+  }
+  d.spacecraft = read_spacecraft(root);
+  const auto shells = root.sequence("shells");
+  std::set<std::string> names;
+  for (size_t s = 0; s < shells.size(); ++s) {
+    const std::string path = fmt::format("shells[{}]", s);
+    Shell shell = read_shell(file, shells[s], path, d.earth, d.epoch);
+    if (!names.insert(shell.name).second)
+      yaml::fail_at(file, shells[s], path + ".name", fmt::format("shell name \"{}\" is used twice; expected unique names", shell.name));
+    d.shells.push_back(std::move(shell));
+  }
+  d.coverage = read_coverage_spec(root);
+  d.budget = read_budget_spec(root);
+  return d;
+}
+
+}  // namespace
+
+std::optional<double> parse_local_time_h(std::string_view t) {
+  if (t.size() != 5 || t[2] != ':') return std::nullopt;
+  auto digit = [](char c) { return c >= '0' && c <= '9'; };
+  if (!digit(t[0]) || !digit(t[1]) || !digit(t[3]) || !digit(t[4])) return std::nullopt;
+  const int h = (t[0] - '0') * 10 + (t[1] - '0'), mi = (t[3] - '0') * 10 + (t[4] - '0');
+  if (h > 23 || mi > 59) return std::nullopt;
+  return h + mi / 60.0;
+}
+
+Design read_design_file(const std::string& path) { return read_design(yaml::load_file(path), path); }
+
+Design read_design_text(const std::string& text, const std::string& name) {
+  return read_design(yaml::load_text(text, name), name);
+}
+
+}  // namespace skein

@@ -1,0 +1,252 @@
+#include "skein/design/yaml_reader.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdlib>
+#include <filesystem>
+#include <fstream>
+#include <map>
+#include <regex>
+#include <sstream>
+
+#include <fmt/format.h>
+
+namespace skein::yaml {
+namespace {
+
+// A description of a scalar for messages: its text in quotes, or its node kind.
+std::string describe(const YAML::Node& n) {
+  if (!n.IsDefined() || n.IsNull()) return "nothing";
+  if (n.IsMap()) return "a mapping";
+  if (n.IsSequence()) return "a list";
+  std::string s = n.Scalar();
+  if (s.size() > 40) s = s.substr(0, 37) + "...";
+  return "\"" + s + "\"";
+}
+
+size_t edit_distance(std::string_view a, std::string_view b) {
+  std::vector<size_t> prev(b.size() + 1), cur(b.size() + 1);
+  for (size_t j = 0; j <= b.size(); ++j) prev[j] = j;
+  for (size_t i = 1; i <= a.size(); ++i) {
+    cur[0] = i;
+    for (size_t j = 1; j <= b.size(); ++j)
+      cur[j] = std::min({prev[j] + 1, cur[j - 1] + 1, prev[j - 1] + (a[i - 1] == b[j - 1] ? 0 : 1)});
+    std::swap(prev, cur);
+  }
+  return prev[b.size()];
+}
+
+// yaml-cpp reports only the deepest failure; make the message say what to do.
+[[noreturn]] void rethrow_parse(const YAML::Exception& ex, const std::string& file) {
+  const std::string msg = ex.msg;
+  if (msg.find("depth") != std::string::npos || msg.find("nest") != std::string::npos)
+    throw InputError(fmt::format("{}: YAML nesting is too deep to be a design; expected a few levels of maps and lists",
+                                 location(file, ex.mark)));
+  throw InputError(fmt::format("{}: not valid YAML: {}", location(file, ex.mark), msg));
+}
+
+constexpr size_t max_file_bytes = 4u << 20;  // a design is a few kB; 4 MiB is a generous ceiling
+
+}  // namespace
+
+std::string location(const std::string& file, const YAML::Mark& mark) {
+  if (mark.line < 0 || mark.is_null()) return file;
+  return fmt::format("{}:{}:{}", file, mark.line + 1, mark.column + 1);
+}
+
+std::string closest_match(std::string_view word, const std::vector<std::string_view>& candidates) {
+  std::string best;
+  size_t best_d = std::max<size_t>(3, word.size() / 2) + 1;
+  for (auto c : candidates) {
+    const size_t d = edit_distance(word, c);
+    if (d < best_d) {
+      best_d = d;
+      best = std::string(c);
+    }
+  }
+  return best;
+}
+
+std::optional<double> parse_plain_number(std::string_view text) {
+  static const std::regex plain(R"(^[+-]?([0-9]+\.?[0-9]*|\.[0-9]+)([eE][+-]?[0-9]+)?$)");
+  const std::string s(text);
+  if (!std::regex_match(s, plain)) return std::nullopt;
+  char* end = nullptr;
+  const double v = std::strtod(s.c_str(), &end);
+  if (end != s.c_str() + s.size() || !std::isfinite(v)) return std::nullopt;
+  return v;
+}
+
+static void check_text(const std::string& text, const std::string& file) {
+  // YAML is UTF-8 here; reject bytes that are not, with the line they sit on.
+  size_t line = 1;
+  for (size_t i = 0; i < text.size();) {
+    const auto c = static_cast<unsigned char>(text[i]);
+    size_t len = c < 0x80 ? 1 : (c >> 5) == 0x6 ? 2 : (c >> 4) == 0xE ? 3 : (c >> 3) == 0x1E ? 4 : 0;
+    bool ok = len != 0 && i + len <= text.size();
+    for (size_t k = 1; ok && k < len; ++k) ok = (static_cast<unsigned char>(text[i + k]) >> 6) == 0x2;
+    if (!ok) throw InputError(fmt::format("{}:{}: the file is not UTF-8 text (byte 0x{:02X}); save it as UTF-8", file, line, c));
+    if (c == '\0') throw InputError(fmt::format("{}:{}: the file holds a NUL byte; expected YAML text", file, line));
+    if (c == '\n') ++line;
+    i += len;
+  }
+}
+
+YAML::Node load_text(const std::string& text, const std::string& file) {
+  check_text(text, file);
+  YAML::Node root;
+  try {
+    root = YAML::Load(text);
+  } catch (const YAML::Exception& ex) {
+    rethrow_parse(ex, file);
+  }
+  if (!root.IsDefined() || root.IsNull())
+    throw InputError(fmt::format("{}: the file is empty; expected a design (a YAML mapping with name, epoch and shells)", file));
+  return root;
+}
+
+YAML::Node load_file(const std::string& path) {
+  std::error_code ec;
+  if (std::filesystem::is_directory(path, ec))
+    throw InputError(fmt::format("{}: is a directory; expected a YAML design file", path));
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw InputError(fmt::format("{}: cannot be opened for reading; check the path", path));
+  std::ostringstream ss;
+  ss << in.rdbuf();
+  std::string text = ss.str();
+  if (text.size() > max_file_bytes)
+    throw InputError(fmt::format("{}: is {} bytes; a design file is expected to be under {} bytes", path, text.size(), max_file_bytes));
+  return load_text(text, path);
+}
+
+void fail_at(const std::string& file, const YAML::Node& at, const std::string& path, const std::string& message) {
+  const YAML::Mark mark = at.IsDefined() ? at.Mark() : YAML::Mark::null_mark();
+  throw InputError(fmt::format("{}: {}: {}", location(file, mark), path, message));
+}
+
+double scalar_number(const std::string& file, const YAML::Node& node, const std::string& path, double min, double max,
+                     std::string_view what) {
+  if (!node.IsScalar()) fail_at(file, node, path, fmt::format("expected {}, got {}", what, describe(node)));
+  const auto v = parse_plain_number(node.Scalar());
+  if (!v) fail_at(file, node, path, fmt::format("expected {} (a plain decimal number), got {}", what, describe(node)));
+  if (*v < min || *v > max)
+    fail_at(file, node, path, fmt::format("{} is out of range; expected {} from {} to {}", node.Scalar(), what, min, max));
+  return *v;
+}
+
+MapReader::MapReader(std::string file, const YAML::Node& node, std::string path, std::vector<std::string_view> allowed)
+    : file_(std::move(file)), node_(node), path_(std::move(path)) {
+  if (!node_.IsMap())
+    fail_at(file_, node_, path_, fmt::format("expected a mapping of keys ({}), got {}",
+                                             fmt::join(allowed, ", "), describe(node_)));
+  std::map<std::string, YAML::Mark> seen;
+  for (auto it = node_.begin(); it != node_.end(); ++it) {
+    const YAML::Node& k = it->first;
+    if (!k.IsScalar()) fail_at(file_, k, path_, "a key must be a plain word");
+    const std::string key = k.Scalar();
+    if (std::find(allowed.begin(), allowed.end(), key) == allowed.end()) {
+      const std::string near = closest_match(key, allowed);
+      fail_at(file_, k, path_,
+              near.empty() ? fmt::format("unknown key \"{}\"; valid keys here are: {}", key, fmt::join(allowed, ", "))
+                           : fmt::format("unknown key \"{}\"; did you mean \"{}\"?", key, near));
+    }
+    auto [pos, fresh] = seen.emplace(key, k.Mark());
+    if (!fresh)
+      fail_at(file_, k, path_, fmt::format("key \"{}\" appears twice (first at line {}); keep one", key, pos->second.line + 1));
+  }
+}
+
+bool MapReader::has(std::string_view key) const { return static_cast<bool>(node_[std::string(key)]); }
+
+YAML::Node MapReader::node(std::string_view key) const {
+  YAML::Node n = node_[std::string(key)];
+  if (!n) fail(node_, path_.empty() ? std::string("(top level)") : path_, fmt::format("missing key \"{}\"", key));
+  return n;
+}
+
+std::string MapReader::path_of(std::string_view key) const {
+  return path_.empty() ? std::string(key) : path_ + "." + std::string(key);
+}
+
+void MapReader::fail(const YAML::Node& at, const std::string& path, const std::string& message) const {
+  fail_at(file_, at.IsDefined() && at.Mark().line >= 0 ? at : node_, path, message);
+}
+
+void MapReader::fail_key(std::string_view key, const std::string& message) const {
+  const YAML::Node n = node_[std::string(key)];
+  fail(n ? n : node_, path_of(key), message);
+}
+
+double MapReader::number(std::string_view key, double min, double max, std::string_view what) const {
+  const YAML::Node n = node(key);
+  return scalar_number(file_, n, path_of(key), min, max, what);
+}
+
+std::optional<double> MapReader::optional_number(std::string_view key, double min, double max, std::string_view what) const {
+  if (!has(key)) return std::nullopt;
+  return number(key, min, max, what);
+}
+
+long MapReader::integer(std::string_view key, long min, long max, std::string_view what) const {
+  const YAML::Node n = node(key);
+  static const std::regex whole(R"(^[+-]?[0-9]+$)");
+  if (!n.IsScalar() || !std::regex_match(n.Scalar(), whole))
+    fail(n, path_of(key), fmt::format("expected {} (a whole number), got {}", what, describe(n)));
+  const std::string& s = n.Scalar();
+  errno = 0;
+  char* end = nullptr;
+  const long v = std::strtol(s.c_str(), &end, 10);
+  if (errno == ERANGE || v < min || v > max)
+    fail(n, path_of(key), fmt::format("{} is out of range; expected {} from {} to {}", s, what, min, max));
+  return v;
+}
+
+std::optional<long> MapReader::optional_integer(std::string_view key, long min, long max, std::string_view what) const {
+  if (!has(key)) return std::nullopt;
+  return integer(key, min, max, what);
+}
+
+std::string MapReader::string(std::string_view key, std::string_view what) const {
+  const YAML::Node n = node(key);
+  if (!n.IsScalar() || n.Scalar().empty())
+    fail(n, path_of(key), fmt::format("expected {} (text), got {}", what, describe(n)));
+  return n.Scalar();
+}
+
+std::optional<std::string> MapReader::optional_string(std::string_view key, std::string_view what) const {
+  if (!has(key)) return std::nullopt;
+  return string(key, what);
+}
+
+std::string MapReader::choice(std::string_view key, const std::vector<std::string_view>& options) const {
+  const YAML::Node n = node(key);
+  const std::string s = n.IsScalar() ? n.Scalar() : std::string();
+  if (std::find(options.begin(), options.end(), s) == options.end()) {
+    const std::string near = closest_match(s, options);
+    fail(n, path_of(key), fmt::format("expected one of {}, got {}{}", fmt::join(options, ", "), describe(n),
+                                      near.empty() ? "" : fmt::format(" (did you mean \"{}\"?)", near)));
+  }
+  return s;
+}
+
+bool MapReader::boolean(std::string_view key) const {
+  const YAML::Node n = node(key);
+  if (n.IsScalar() && n.Scalar() == "true") return true;
+  if (n.IsScalar() && n.Scalar() == "false") return false;
+  fail(n, path_of(key), fmt::format("expected true or false, got {}", describe(n)));
+}
+
+MapReader MapReader::map(std::string_view key, std::vector<std::string_view> allowed) const {
+  return MapReader(file_, node(key), path_of(key), std::move(allowed));
+}
+
+std::vector<YAML::Node> MapReader::sequence(std::string_view key, bool allow_empty) const {
+  const YAML::Node n = node(key);
+  if (!n.IsSequence()) fail(n, path_of(key), fmt::format("expected a list, got {}", describe(n)));
+  if (!allow_empty && n.size() == 0) fail(n, path_of(key), "the list is empty; expected at least one item");
+  std::vector<YAML::Node> items;
+  for (const auto& item : n) items.push_back(item);
+  return items;
+}
+
+}  // namespace skein::yaml

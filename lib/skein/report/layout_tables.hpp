@@ -1,0 +1,17 @@
+#pragma once
+// Tables for the layout (expanded satellites) and the J2 drift figures, shared by `skein check`,
+// `skein drift` and the report folder.
+#include <vector>
+
+#include "skein/design/constellation.hpp"
+#include "skein/orbit/drift_summary.hpp"
+#include "skein/report/table.hpp"
+
+namespace skein {
+
+Table satellite_table(const Design& design, const std::vector<Satellite>& satellites);
+Table shell_table(const Design& design);
+Table drift_table(const DriftResult& drift);
+Table differential_drift_table(const DriftResult& drift);
+
+}  // namespace skein

@@ -1,0 +1,24 @@
+#!/usr/bin/env bash
+# One idempotent set-up step for a Debian 12 machine: install the missing packages with apt-get, then
+# configure and build skein in ./build (or $SKEIN_BUILD_DIR). Safe to run again; it only does what is missing.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+
+packages=(build-essential cmake pkg-config libeigen3-dev libyaml-cpp-dev libtbb-dev libbenchmark-dev doctest-dev
+          libcli11-dev libfmt-dev nlohmann-json3-dev liberfa-dev python3 python3-numpy)
+packages+=(${SKEIN_EXTRA_PACKAGES:-})
+missing=()
+for p in "${packages[@]}"; do
+  dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing+=("$p")
+done
+if [ ${#missing[@]} -gt 0 ]; then
+  echo "setup: installing ${missing[*]}" >&2
+  sudo_cmd=""
+  [ "$(id -u)" -ne 0 ] && sudo_cmd="sudo"
+  $sudo_cmd apt-get update -qq
+  DEBIAN_FRONTEND=noninteractive $sudo_cmd apt-get install -y -qq --no-install-recommends "${missing[@]}" >/dev/null
+fi
+
+build_dir="${SKEIN_BUILD_DIR:-build}"
+cmake -S . -B "$build_dir" -DCMAKE_BUILD_TYPE=RelWithDebInfo ${SKEIN_CMAKE_ARGS:-} >/dev/null
+cmake --build "$build_dir" -j"$(nproc)"
