@@ -1,13 +1,56 @@
 #pragma once
-// The `coverage` block of a design: grid, visibility mask, time span. (Filled in by the coverage evaluator work.)
+// The `coverage` block of a design: which ground points, the visibility conditions and the time sampling.
+// Every field has a stated default, used when the block or the key is absent.
+#include <optional>
+#include <string>
+#include <string_view>
+#include <vector>
+
 namespace skein {
 namespace yaml { class MapReader; }
 
+// The kind of ground grid.
+enum class GridKind {
+  global,  // latitude/longitude cells over the whole Earth, area-weighted
+  band,    // the same cells between two latitudes
+  region,  // the cells whose centre lies inside a longitude/latitude polygon
+  sites    // a list of named points, equally weighted
+};
+std::string_view to_string(GridKind kind);
+std::optional<GridKind> grid_kind_from_string(std::string_view text);
+
+struct GeoVertex {
+  double lon_deg = 0.0;
+  double lat_deg = 0.0;
+};
+
+struct Site {
+  std::string name;
+  double lat_deg = 0.0;  // geodetic latitude
+  double lon_deg = 0.0;
+  double height_km = 0.0;  // above the ellipsoid
+};
+
 struct CoverageSpec {
-  bool present = false;  // the design has a coverage block
+  bool present = false;                 // the design has a coverage block
+  GridKind grid = GridKind::global;     // grid.kind, default global
+  double spacing_deg = 2.0;             // grid.spacing_deg: cell size in latitude and longitude; must divide 180
+  double band_lat_min_deg = -90.0;      // grid.lat_min_deg (band)
+  double band_lat_max_deg = 90.0;       // grid.lat_max_deg (band)
+  std::vector<GeoVertex> region;        // grid.vertices as [lon, lat] pairs (region); open ring, no repeat
+  std::vector<Site> sites;              // grid.sites (sites)
+  double min_elevation_deg = 10.0;      // elevation mask from the local (geodetic) horizontal, 0 to 89
+  std::optional<double> nadir_half_angle_deg;  // payload cone half-angle at the satellite; none by default
+  double span_s = 86400.0;              // span_h (default 24 h) from the design epoch
+  double step_s = 60.0;                 // step_s, default 60 s
+  std::optional<int> max_fold;          // max_fold K; default min(3, satellites)
+  std::string max_fold_location;        // "file:line:col: coverage.max_fold", for the later check against T
+  double band_width_deg = 10.0;         // latitude_band_deg: width of the reporting latitude bands
 };
 
 // Read the optional `coverage` block of the design's top-level map; defaults when absent.
+// Keys: grid {kind, spacing_deg, lat_min_deg, lat_max_deg, vertices, sites}, min_elevation_deg,
+// nadir_half_angle_deg, span_h, step_s, max_fold, latitude_band_deg.
 CoverageSpec read_coverage_spec(const yaml::MapReader& design_root);
 
 }  // namespace skein

@@ -45,7 +45,7 @@ void read_orbit(const MapReader& m, const EarthModel& earth, Shell& shell) {
   shell.argp_deg = m.optional_number("arg_perigee_deg", -360.0, 360.0, "an argument of perigee in degrees").value_or(0.0);
   const double perigee_alt = shell.a_km * (1.0 - shell.e) - earth.radius_km;
   if (perigee_alt < minimum_perigee_altitude_km)
-    m.fail(m.node(has_alt ? "altitude_km" : "semi_major_axis_km"), m.path(),
+    m.fail(m.node(has_alt ? "altitude_km" : "semi_major_axis_km"), m.path_of(has_alt ? "altitude_km" : "semi_major_axis_km"),
            fmt::format("perigee altitude {:.1f} km is below {} km; expected an orbit that clears the atmosphere",
                        perigee_alt, minimum_perigee_altitude_km));
 }
@@ -69,7 +69,7 @@ void read_inclination(const MapReader& m, const EarthModel& earth, const UtcEpoc
     }
   } else {
     shell.inclination_deg = yaml::scalar_number(m.file(), inc, m.path_of("inclination_deg"), 0.0, 180.0,
-                                                "an inclination in degrees (0 to 180) or sun-synchronous");
+                                                "an inclination in degrees or sun-synchronous");
     if (m.has("ltan")) m.fail_key("ltan", "ltan applies only to sun-synchronous shells; use raan_deg for the first node");
   }
   if (m.has("ltan")) {
