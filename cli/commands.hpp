@@ -20,5 +20,8 @@ void print_stderr(const std::string& text);
 
 void add_check_command(CLI::App& app);
 void add_drift_command(CLI::App& app);
+void add_coverage_command(CLI::App& app);
+void add_budget_command(CLI::App& app);
+void add_report_command(CLI::App& app);
 
 }  // namespace skein::cli

@@ -42,6 +42,9 @@ int main(int argc, char** argv) {
   app.require_subcommand(1);
   skein::cli::add_check_command(app);
   skein::cli::add_drift_command(app);
+  skein::cli::add_coverage_command(app);
+  skein::cli::add_budget_command(app);
+  skein::cli::add_report_command(app);
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {

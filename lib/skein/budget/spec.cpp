@@ -1,14 +1,96 @@
 #include "skein/budget/spec.hpp"
 
+#include <fmt/format.h>
+
 #include "skein/design/yaml_reader.hpp"
 
 namespace skein {
 
+std::string_view to_string(DisposalMode mode) {
+  switch (mode) {
+    case DisposalMode::natural_decay: return "natural-decay";
+    case DisposalMode::direct: return "direct";
+    case DisposalMode::none: return "none";
+  }
+  return "natural-decay";
+}
+
+std::optional<DisposalMode> disposal_mode_from_string(std::string_view text) {
+  for (DisposalMode m : {DisposalMode::natural_decay, DisposalMode::direct, DisposalMode::none})
+    if (to_string(m) == text) return m;
+  return std::nullopt;
+}
+
+std::string_view to_string(NodeControl control) {
+  return control == NodeControl::none ? "none" : "correct";
+}
+
+std::optional<NodeControl> node_control_from_string(std::string_view text) {
+  for (NodeControl c : {NodeControl::correct, NodeControl::none})
+    if (to_string(c) == text) return c;
+  return std::nullopt;
+}
+
 BudgetSpec read_budget_spec(const yaml::MapReader& root) {
   BudgetSpec spec;
   if (!root.has("budget")) return spec;
-  const yaml::MapReader block = root.map("budget", {});
+  const yaml::MapReader m = root.map(
+      "budget", {"mission_life_years", "atmosphere", "harris_priester_exponent", "solar_activity", "solar_cycle_phase",
+                 "reentry_altitude_km", "deadband_km", "injection_sigma", "node_control", "sso_inclination_control",
+                 "slot_keeping", "collision_avoidance", "disposal", "margin_percent"});
   spec.present = true;
+  spec.mission_life_years =
+      m.optional_number("mission_life_years", 0.01, 100.0, "a mission life in years (0.01 to 100)").value_or(5.0);
+  if (m.has("atmosphere"))
+    spec.atmosphere = *atmosphere_kind_from_string(m.choice("atmosphere", {"harris-priester", "exponential"}));
+  spec.harris_priester_exponent =
+      m.optional_number("harris_priester_exponent", 2.0, 6.0, "a Harris-Priester bulge exponent n from 2 to 6");
+  if (spec.harris_priester_exponent && spec.atmosphere != AtmosphereKind::harris_priester)
+    m.fail_key("harris_priester_exponent", "applies only with atmosphere: harris-priester");
+  if (m.has("solar_activity"))
+    spec.solar = *solar_level_from_string(m.choice("solar_activity", {"low", "mean", "high", "cycle"}));
+  spec.solar_cycle_phase =
+      m.optional_number("solar_cycle_phase", 0.0, 1.0, "a solar-cycle phase at the epoch (0 = minimum, 0.5 = maximum)");
+  spec.reentry_altitude_km =
+      m.optional_number("reentry_altitude_km", 80.0, 200.0, "a re-entry altitude in km (80 to 200)").value_or(120.0);
+  spec.deadband_km =
+      m.optional_number("deadband_km", 0.01, 50.0, "an altitude deadband in km (0.01 to 50)").value_or(1.0);
+  if (m.has("injection_sigma")) {
+    const yaml::MapReader s = m.map("injection_sigma", {"altitude_km", "inclination_deg", "multiple"});
+    spec.injection_sigma_altitude_km =
+        s.optional_number("altitude_km", 0.0, 100.0, "a 1-sigma injection altitude error in km").value_or(3.0);
+    spec.injection_sigma_inclination_deg =
+        s.optional_number("inclination_deg", 0.0, 5.0, "a 1-sigma injection inclination error in degrees").value_or(0.03);
+    spec.sigma_multiple = s.optional_number("multiple", 0.0, 6.0, "a sigma multiple k (0 to 6)").value_or(3.0);
+  }
+  if (m.has("node_control")) spec.node_control = *node_control_from_string(m.choice("node_control", {"correct", "none"}));
+  if (m.has("sso_inclination_control")) spec.sso_inclination_control = m.boolean("sso_inclination_control");
+  if (m.has("slot_keeping")) {
+    const yaml::MapReader s = m.map("slot_keeping", {"shift_deg", "shift_days", "shifts_per_year"});
+    spec.slot_shift_deg = s.optional_number("shift_deg", 0.0, 180.0, "a slot shift in degrees").value_or(1.0);
+    spec.slot_shift_days = s.optional_number("shift_days", 0.1, 365.0, "a shift duration in days").value_or(10.0);
+    spec.slot_shifts_per_year = s.optional_number("shifts_per_year", 0.0, 365.0, "shifts per year").value_or(4.0);
+  }
+  if (m.has("collision_avoidance")) {
+    const yaml::MapReader s = m.map("collision_avoidance", {"manoeuvres_per_year", "dv_per_manoeuvre_m_s"});
+    spec.avoidance_per_year =
+        s.optional_number("manoeuvres_per_year", 0.0, 1000.0, "avoidance manoeuvres per year").value_or(2.0);
+    spec.avoidance_dv_m_s =
+        s.optional_number("dv_per_manoeuvre_m_s", 0.0, 100.0, "a delta-v per avoidance manoeuvre in m/s").value_or(0.5);
+  }
+  if (m.has("disposal")) {
+    const yaml::MapReader s = m.map("disposal", {"mode", "perigee_km", "rule_years"});
+    if (s.has("mode")) spec.disposal = *disposal_mode_from_string(s.choice("mode", {"natural-decay", "direct", "none"}));
+    spec.disposal_perigee_km =
+        s.optional_number("perigee_km", -100.0, 200.0, "a disposal perigee altitude in km (-100 to 200)").value_or(50.0);
+    spec.disposal_rule_years =
+        s.optional_number("rule_years", 0.1, 100.0, "a re-entry rule period in years (e.g. 5 or 25)").value_or(5.0);
+    if (s.has("perigee_km") && spec.disposal != DisposalMode::direct)
+      s.fail_key("perigee_km", "applies only to mode: direct");
+    if (s.has("rule_years") && spec.disposal != DisposalMode::natural_decay)
+      s.fail_key("rule_years", "applies only to mode: natural-decay");
+  }
+  spec.margin_percent = m.optional_number("margin_percent", 0.0, 200.0, "a margin in percent").value_or(10.0);
   return spec;
 }
 

@@ -1,10 +1,59 @@
 #pragma once
-// The `budget` block of a design: mission life, deadbands, allowances. (Filled in by the budget evaluator work.)
+// The `budget` block of a design: mission life, atmosphere, solar activity and the allowances of every
+// station-keeping line. Every field has a stated default, used when the block or the key is absent.
+#include <optional>
+#include <string_view>
+
+#include "skein/atmosphere/atmosphere.hpp"
+#include "skein/atmosphere/solar_activity.hpp"
+
 namespace skein {
 namespace yaml { class MapReader; }
 
+// End-of-life disposal.
+enum class DisposalMode {
+  natural_decay,  // lower the perigee just enough to re-enter naturally within rule_years
+  direct,         // lower the perigee to perigee_km for a prompt re-entry
+  none            // no disposal manoeuvre budgeted
+};
+std::string_view to_string(DisposalMode mode);
+std::optional<DisposalMode> disposal_mode_from_string(std::string_view text);
+
+// Control of the differential node drift that injection dispersions cause.
+enum class NodeControl {
+  correct,  // remove the altitude and inclination dispersion after injection (budgeted at sigma_multiple)
+  none      // accept the drift (reported, not budgeted)
+};
+std::string_view to_string(NodeControl control);
+std::optional<NodeControl> node_control_from_string(std::string_view text);
+
 struct BudgetSpec {
-  bool present = false;  // the design has a budget block
+  bool present = false;                          // the design has a budget block
+  double mission_life_years = 5.0;               // mission_life_years
+  AtmosphereKind atmosphere = AtmosphereKind::harris_priester;  // atmosphere
+  std::optional<double> harris_priester_exponent;               // harris_priester_exponent (2..6); default by inclination
+  SolarLevel solar = SolarLevel::mean;           // solar_activity
+  std::optional<double> solar_cycle_phase;       // solar_cycle_phase at the epoch, 0 = minimum; default from the epoch
+  double reentry_altitude_km = 120.0;            // reentry_altitude_km
+  double deadband_km = 1.0;                      // deadband_km: drag make-up lets the altitude fall this far
+  // injection (1-sigma) and node_control
+  double injection_sigma_altitude_km = 3.0;      // injection_sigma.altitude_km
+  double injection_sigma_inclination_deg = 0.03; // injection_sigma.inclination_deg
+  double sigma_multiple = 3.0;                   // injection_sigma.multiple: budget at k sigma
+  NodeControl node_control = NodeControl::correct;
+  bool sso_inclination_control = true;           // sso_inclination_control
+  // slot_keeping
+  double slot_shift_deg = 1.0;                   // slot_keeping.shift_deg
+  double slot_shift_days = 10.0;                 // slot_keeping.shift_days
+  double slot_shifts_per_year = 4.0;             // slot_keeping.shifts_per_year
+  // collision_avoidance
+  double avoidance_per_year = 2.0;               // collision_avoidance.manoeuvres_per_year
+  double avoidance_dv_m_s = 0.5;                 // collision_avoidance.dv_per_manoeuvre_m_s
+  // disposal
+  DisposalMode disposal = DisposalMode::natural_decay;  // disposal.mode
+  double disposal_perigee_km = 50.0;             // disposal.perigee_km (direct)
+  double disposal_rule_years = 5.0;              // disposal.rule_years (natural-decay)
+  double margin_percent = 10.0;                  // margin_percent
 };
 
 // Read the optional `budget` block of the design's top-level map; defaults when absent.

@@ -15,6 +15,11 @@ namespace {
 using yaml::MapReader;
 
 constexpr double max_semi_major_axis_km = 500000.0;  // beyond the Moon's distance the J2 model is meaningless
+// Resource guards (common practice: the largest filed constellations hold a few tens of thousands of
+// satellites in a few dozen shells). They bound what every evaluator expands, and the shell pairs of the
+// differential drift table (shells^2 / 2).
+constexpr long max_satellites = 100000;  // in one shell and in the whole design
+constexpr size_t max_shells = 1000;
 
 Spacecraft read_spacecraft(const MapReader& root) {
   const MapReader m = root.map("spacecraft", {"dry_mass_kg", "drag_area_m2", "drag_coefficient", "isp_s",
@@ -75,7 +80,7 @@ void read_inclination(const MapReader& m, const EarthModel& earth, const UtcEpoc
   if (m.has("ltan")) {
     const std::string t = m.string("ltan", "a local time \"HH:MM\"");
     const auto h = parse_local_time_h(t);
-    if (!h) m.fail_key("ltan", fmt::format("\"{}\" is not a local time; expected \"HH:MM\" from 00:00 to 23:59", t));
+    if (!h) m.fail_key("ltan", fmt::format("{} is not a local time; expected \"HH:MM\" from 00:00 to 23:59", yaml::quote_for_message(t)));
     shell.ltan_h = *h;
     shell.raan0_deg = node_for_local_time_rad(*h, julian_date(epoch)) * deg_per_rad;
   } else {
@@ -84,8 +89,8 @@ void read_inclination(const MapReader& m, const EarthModel& earth, const UtcEpoc
 }
 
 void read_walker(const MapReader& m, Shell& shell) {
-  shell.satellites = static_cast<int>(m.integer("satellites", 1, 100000, "the total number of satellites T"));
-  shell.planes = static_cast<int>(m.integer("planes", 1, 100000, "the number of planes P"));
+  shell.satellites = static_cast<int>(m.integer("satellites", 1, max_satellites, "the total number of satellites T"));
+  shell.planes = static_cast<int>(m.integer("planes", 1, max_satellites, "the number of planes P"));
   shell.phasing = static_cast<int>(m.integer("phasing", -1000000, 1000000, "the relative phasing F"));
   if (shell.satellites % shell.planes != 0)
     m.fail_key("planes", fmt::format("T = {} satellites do not divide into P = {} equal planes; expected P to divide T",
@@ -96,7 +101,7 @@ void read_walker(const MapReader& m, Shell& shell) {
 
 void read_explicit(const MapReader& m, const UtcEpoch& epoch, Shell& shell) {
   const auto planes = m.sequence("planes");
-  int count = 0;
+  long count = 0;
   for (size_t p = 0; p < planes.size(); ++p) {
     const std::string path = fmt::format("{}[{}]", m.path_of("planes"), p);
     const MapReader pm(m.file(), planes[p], path, {"raan_deg", "ltan", "slots_deg"});
@@ -107,20 +112,25 @@ void read_explicit(const MapReader& m, const UtcEpoch& epoch, Shell& shell) {
       if (!shell.sun_synchronous) pm.fail_key("ltan", "ltan applies only to sun-synchronous shells; use raan_deg");
       const std::string t = pm.string("ltan", "a local time \"HH:MM\"");
       const auto h = parse_local_time_h(t);
-      if (!h) pm.fail_key("ltan", fmt::format("\"{}\" is not a local time; expected \"HH:MM\"", t));
+      if (!h) pm.fail_key("ltan", fmt::format("{} is not a local time; expected \"HH:MM\"", yaml::quote_for_message(t)));
       plane.raan_deg = node_for_local_time_rad(*h, julian_date(epoch)) * deg_per_rad;
     } else {
       plane.raan_deg = pm.number("raan_deg", -360.0, 360.0, "a node right ascension in degrees");
     }
     const auto slots = pm.sequence("slots_deg");
+    // Checked before the slots are read: aliases can repeat one long slot list in many planes.
+    if (count + static_cast<long>(slots.size()) > max_satellites)
+      pm.fail_key("slots_deg", fmt::format("the shell's planes hold more than {} slots in all; expected at most {} "
+                                           "satellites in one shell",
+                                           max_satellites, max_satellites));
     for (size_t k = 0; k < slots.size(); ++k)
       plane.slots_deg.push_back(yaml::scalar_number(m.file(), slots[k], fmt::format("{}.slots_deg[{}]", path, k),
                                                     -360.0, 360.0, "an argument of latitude in degrees"));
-    count += static_cast<int>(plane.slots_deg.size());
+    count += static_cast<long>(plane.slots_deg.size());
     shell.explicit_planes.push_back(std::move(plane));
   }
   shell.planes = static_cast<int>(shell.explicit_planes.size());
-  shell.satellites = count;
+  shell.satellites = static_cast<int>(count);
 }
 
 Shell read_shell(const std::string& file, const YAML::Node& node, const std::string& path, const EarthModel& earth,
@@ -135,8 +145,11 @@ Shell read_shell(const std::string& file, const YAML::Node& node, const std::str
   shell.name = probe.string("name", "a shell name");
   for (char c : shell.name)
     if (!(std::isalnum(static_cast<unsigned char>(c)) || c == '-' || c == '_'))
-      probe.fail_key("name", fmt::format("shell name \"{}\" has the character '{}'; expected letters, digits, - and _",
-                                         shell.name, c));
+      probe.fail_key("name", fmt::format("shell name {} has the character {}; expected letters, digits, - and _",
+                                         yaml::quote_for_message(shell.name),
+                                         static_cast<unsigned char>(c) < 0x80
+                                             ? "'" + std::string(1, c) + "'"
+                                             : fmt::format("byte 0x{:02X}", static_cast<unsigned char>(c))));
   const std::string pattern = probe.choice("pattern", {"walker-delta", "walker-star", "explicit"});
   shell.pattern = *pattern_kind_from_string(pattern);
   std::vector<std::string_view> allowed = common;
@@ -163,7 +176,8 @@ Design read_design(const YAML::Node& root_node, const std::string& file) {
   const std::string epoch_text = root.string("epoch", "a UTC epoch");
   const auto epoch = parse_utc_iso8601(epoch_text);
   if (!epoch)
-    root.fail_key("epoch", fmt::format("\"{}\" is not a UTC epoch; expected ISO 8601 like 2027-03-01T00:00:00Z", epoch_text));
+    root.fail_key("epoch", fmt::format("{} is not a UTC epoch; expected ISO 8601 like 2027-03-01T00:00:00Z",
+                                       yaml::quote_for_message(epoch_text)));
   d.epoch = *epoch;
   if (root.has("earth")) {
     std::vector<std::string_view> names;
@@ -172,12 +186,21 @@ Design read_design(const YAML::Node& root_node, const std::string& file) {
   }
   d.spacecraft = read_spacecraft(root);
   const auto shells = root.sequence("shells");
+  if (shells.size() > max_shells)
+    root.fail_key("shells", fmt::format("the design has {} shells; expected at most {}", shells.size(), max_shells));
   std::set<std::string> names;
+  long total = 0;
   for (size_t s = 0; s < shells.size(); ++s) {
     const std::string path = fmt::format("shells[{}]", s);
     Shell shell = read_shell(file, shells[s], path, d.earth, d.epoch);
     if (!names.insert(shell.name).second)
-      yaml::fail_at(file, shells[s], path + ".name", fmt::format("shell name \"{}\" is used twice; expected unique names", shell.name));
+      yaml::fail_at(file, shells[s], path + ".name",
+                    fmt::format("shell name {} is used twice; expected unique names", yaml::quote_for_message(shell.name)));
+    total += shell.satellites;
+    if (total > max_satellites)
+      yaml::fail_at(file, shells[s], path,
+                    fmt::format("with this shell the design holds {} satellites; expected at most {} in all shells",
+                                total, max_satellites));
     d.shells.push_back(std::move(shell));
   }
   d.coverage = read_coverage_spec(root);

@@ -6,23 +6,163 @@
 #include <filesystem>
 #include <fstream>
 #include <map>
-#include <regex>
 #include <sstream>
+#include <unordered_map>
 
 #include <fmt/format.h>
+#include <yaml-cpp/depthguard.h>
+#include <yaml-cpp/eventhandler.h>
 
 namespace skein::yaml {
 namespace {
 
-// A description of a scalar for messages: its text in quotes, or its node kind.
+// Text from the input made safe and short for a message: control bytes and quotes escaped, cut to about
+// 40 characters at a UTF-8 character boundary ("..." marks the cut).
+std::string clip(std::string_view text) {
+  constexpr size_t keep = 37;
+  std::string_view shown = text;
+  bool cut = false;
+  if (text.size() > 40) {
+    size_t end = keep;
+    while (end > 0 && (static_cast<unsigned char>(text[end]) & 0xC0) == 0x80) --end;  // not mid-character
+    shown = text.substr(0, end);
+    cut = true;
+  }
+  std::string out;
+  for (char ch : shown) {
+    const auto c = static_cast<unsigned char>(ch);
+    if (c < 0x20 || c == 0x7F)
+      out += fmt::format("\\x{:02X}", c);
+    else
+      out += ch;
+  }
+  return cut ? out + "..." : out;
+}
+
+// A description of a node for messages: a scalar's text in quotes, or the node's kind.
 std::string describe(const YAML::Node& n) {
   if (!n.IsDefined() || n.IsNull()) return "nothing";
   if (n.IsMap()) return "a mapping";
   if (n.IsSequence()) return "a list";
-  std::string s = n.Scalar();
-  if (s.size() > 40) s = s.substr(0, 37) + "...";
-  return "\"" + s + "\"";
+  return quote_for_message(n.Scalar());
 }
+
+// The spellings YAML 1.2 and common habit give to not-a-number and infinity.
+bool is_nan_or_inf_word(std::string_view s) {
+  if (!s.empty() && (s[0] == '+' || s[0] == '-')) s.remove_prefix(1);
+  if (!s.empty() && s[0] == '.') s.remove_prefix(1);
+  std::string lower;
+  for (char c : s) lower += static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+  return lower == "nan" || lower == "inf" || lower == "infinity";
+}
+
+// [+-] digits [. digits] [(e|E) [+-] digits], at least one digit before the exponent. Written by hand:
+// std::regex recurses once per character and overflows the stack on a long scalar.
+bool has_plain_number_syntax(std::string_view s) {
+  auto digits = [&](size_t& i) {
+    const size_t start = i;
+    while (i < s.size() && s[i] >= '0' && s[i] <= '9') ++i;
+    return i - start;
+  };
+  size_t i = 0;
+  if (i < s.size() && (s[i] == '+' || s[i] == '-')) ++i;
+  size_t mantissa = digits(i);
+  if (i < s.size() && s[i] == '.') {
+    ++i;
+    mantissa += digits(i);
+  }
+  if (mantissa == 0) return false;
+  if (i < s.size() && (s[i] == 'e' || s[i] == 'E')) {
+    ++i;
+    if (i < s.size() && (s[i] == '+' || s[i] == '-')) ++i;
+    if (digits(i) == 0) return false;
+  }
+  return i == s.size();
+}
+
+bool has_whole_number_syntax(std::string_view s) {
+  size_t i = (!s.empty() && (s[0] == '+' || s[0] == '-')) ? 1 : 0;
+  if (i == s.size()) return false;
+  for (; i < s.size(); ++i)
+    if (s[i] < '0' || s[i] > '9') return false;
+  return true;
+}
+
+constexpr size_t max_number_chars = 100;  // no design value needs more; keeps strtod's work bounded
+
+// A first pass over the parser's events, before yaml-cpp builds nodes: counts the nodes a reader would visit
+// with every alias expanded, the nesting depth, and aliases that point into the node that holds them (a
+// cycle, which would make any walk endless). Throws InputError at the first node past a limit.
+class EventGuard final : public YAML::EventHandler {
+ public:
+  explicit EventGuard(const std::string& file) : file_(file) {}
+
+  void OnDocumentStart(const YAML::Mark& mark) override {
+    if (++documents_ > 1)
+      throw InputError(fmt::format("{}: a second YAML document starts here; expected one design per file",
+                                   location(file_, mark)));
+  }
+  void OnDocumentEnd() override {}
+  void OnNull(const YAML::Mark& mark, YAML::anchor_t anchor) override { leaf(mark, anchor); }
+  void OnScalar(const YAML::Mark& mark, const std::string&, YAML::anchor_t anchor, const std::string&) override {
+    leaf(mark, anchor);
+  }
+  void OnAlias(const YAML::Mark& mark, YAML::anchor_t anchor) override {
+    for (const Open& o : open_)
+      if (o.anchor == anchor)
+        throw InputError(fmt::format("{}: an alias refers to a node that contains it, an endless loop; expected "
+                                     "aliases only to nodes defined before and outside them",
+                                     location(file_, mark)));
+    const auto it = size_.find(anchor);
+    add(mark, it == size_.end() ? 1 : it->second);
+  }
+  void OnSequenceStart(const YAML::Mark& mark, const std::string&, YAML::anchor_t anchor,
+                       YAML::EmitterStyle::value) override {
+    open(mark, anchor);
+  }
+  void OnSequenceEnd() override { close(); }
+  void OnMapStart(const YAML::Mark& mark, const std::string&, YAML::anchor_t anchor,
+                  YAML::EmitterStyle::value) override {
+    open(mark, anchor);
+  }
+  void OnMapEnd() override { close(); }
+
+ private:
+  struct Open {
+    YAML::anchor_t anchor;
+    size_t count_before;
+  };
+  void add(const YAML::Mark& mark, size_t n) {
+    count_ += n;
+    if (count_ > max_expanded_nodes)
+      throw InputError(fmt::format("{}: with its aliases expanded the document holds more than {} nodes; a design "
+                                   "needs a few hundred, so expected fewer or smaller aliases",
+                                   location(file_, mark), max_expanded_nodes));
+  }
+  void leaf(const YAML::Mark& mark, YAML::anchor_t anchor) {
+    add(mark, 1);
+    if (anchor != YAML::NullAnchor) size_[anchor] = 1;
+  }
+  void open(const YAML::Mark& mark, YAML::anchor_t anchor) {
+    if (open_.size() >= static_cast<size_t>(max_nesting_depth))
+      throw InputError(fmt::format("{}: YAML nesting is deeper than {} levels; expected a design of a few levels of "
+                                   "maps and lists",
+                                   location(file_, mark), max_nesting_depth));
+    open_.push_back({anchor, count_});
+    add(mark, 1);
+  }
+  void close() {
+    const Open o = open_.back();
+    open_.pop_back();
+    if (o.anchor != YAML::NullAnchor) size_[o.anchor] = count_ - o.count_before;
+  }
+
+  const std::string& file_;
+  int documents_ = 0;
+  size_t count_ = 0;
+  std::vector<Open> open_;
+  std::unordered_map<YAML::anchor_t, size_t> size_;
+};
 
 size_t edit_distance(std::string_view a, std::string_view b) {
   std::vector<size_t> prev(b.size() + 1), cur(b.size() + 1);
@@ -38,11 +178,10 @@ size_t edit_distance(std::string_view a, std::string_view b) {
 
 // yaml-cpp reports only the deepest failure; make the message say what to do.
 [[noreturn]] void rethrow_parse(const YAML::Exception& ex, const std::string& file) {
-  const std::string msg = ex.msg;
-  if (msg.find("depth") != std::string::npos || msg.find("nest") != std::string::npos)
+  if (dynamic_cast<const YAML::DeepRecursion*>(&ex) != nullptr)
     throw InputError(fmt::format("{}: YAML nesting is too deep to be a design; expected a few levels of maps and lists",
                                  location(file, ex.mark)));
-  throw InputError(fmt::format("{}: not valid YAML: {}", location(file, ex.mark), msg));
+  throw InputError(fmt::format("{}: not valid YAML: {}", location(file, ex.mark), ex.msg));
 }
 
 constexpr size_t max_file_bytes = 4u << 20;  // a design is a few kB; 4 MiB is a generous ceiling
@@ -67,10 +206,11 @@ std::string closest_match(std::string_view word, const std::vector<std::string_v
   return best;
 }
 
+std::string quote_for_message(std::string_view text) { return "\"" + clip(text) + "\""; }
+
 std::optional<double> parse_plain_number(std::string_view text) {
-  static const std::regex plain(R"(^[+-]?([0-9]+\.?[0-9]*|\.[0-9]+)([eE][+-]?[0-9]+)?$)");
+  if (text.size() > max_number_chars || !has_plain_number_syntax(text)) return std::nullopt;
   const std::string s(text);
-  if (!std::regex_match(s, plain)) return std::nullopt;
   char* end = nullptr;
   const double v = std::strtod(s.c_str(), &end);
   if (end != s.c_str() + s.size() || !std::isfinite(v)) return std::nullopt;
@@ -78,16 +218,24 @@ std::optional<double> parse_plain_number(std::string_view text) {
 }
 
 static void check_text(const std::string& text, const std::string& file) {
-  // YAML is UTF-8 here; reject bytes that are not, with the line they sit on.
-  size_t line = 1;
+  // YAML is UTF-8 here; reject bytes that are not, with the line and column (in characters) they sit on.
+  size_t line = 1, column = 1;
   for (size_t i = 0; i < text.size();) {
     const auto c = static_cast<unsigned char>(text[i]);
     size_t len = c < 0x80 ? 1 : (c >> 5) == 0x6 ? 2 : (c >> 4) == 0xE ? 3 : (c >> 3) == 0x1E ? 4 : 0;
     bool ok = len != 0 && i + len <= text.size();
     for (size_t k = 1; ok && k < len; ++k) ok = (static_cast<unsigned char>(text[i + k]) >> 6) == 0x2;
-    if (!ok) throw InputError(fmt::format("{}:{}: the file is not UTF-8 text (byte 0x{:02X}); save it as UTF-8", file, line, c));
-    if (c == '\0') throw InputError(fmt::format("{}:{}: the file holds a NUL byte; expected YAML text", file, line));
-    if (c == '\n') ++line;
+    if (!ok)
+      throw InputError(fmt::format("{}:{}:{}: the file is not UTF-8 text (byte 0x{:02X}); expected YAML saved as UTF-8",
+                                   file, line, column, c));
+    if (c == '\0')
+      throw InputError(fmt::format("{}:{}:{}: the file holds a NUL byte; expected YAML text", file, line, column));
+    if (c == '\n') {
+      ++line;
+      column = 1;
+    } else {
+      ++column;
+    }
     i += len;
   }
 }
@@ -96,6 +244,14 @@ YAML::Node load_text(const std::string& text, const std::string& file) {
   check_text(text, file);
   YAML::Node root;
   try {
+    // Guard pass over the events first: yaml-cpp would build the nodes happily, but a reader walking a
+    // billion-laughs document or a cyclic alias would not finish.
+    {
+      std::istringstream in(text);
+      YAML::Parser parser(in);
+      EventGuard guard(file);
+      if (parser.HandleNextDocument(guard)) parser.HandleNextDocument(guard);  // throws on a second document
+    }
     root = YAML::Load(text);
   } catch (const YAML::Exception& ex) {
     rethrow_parse(ex, file);
@@ -121,16 +277,24 @@ YAML::Node load_file(const std::string& path) {
 
 void fail_at(const std::string& file, const YAML::Node& at, const std::string& path, const std::string& message) {
   const YAML::Mark mark = at.IsDefined() ? at.Mark() : YAML::Mark::null_mark();
-  throw InputError(fmt::format("{}: {}: {}", location(file, mark), path, message));
+  throw InputError(fmt::format("{}: {}: {}", location(file, mark), path.empty() ? "(top level)" : path, message));
 }
 
 double scalar_number(const std::string& file, const YAML::Node& node, const std::string& path, double min, double max,
                      std::string_view what) {
   if (!node.IsScalar()) fail_at(file, node, path, fmt::format("expected {}, got {}", what, describe(node)));
-  const auto v = parse_plain_number(node.Scalar());
-  if (!v) fail_at(file, node, path, fmt::format("expected {} (a plain decimal number), got {}", what, describe(node)));
-  if (*v < min || *v > max)
-    fail_at(file, node, path, fmt::format("{} is out of range; expected {} from {} to {}", node.Scalar(), what, min, max));
+  const std::string& s = node.Scalar();
+  if (is_nan_or_inf_word(s))
+    fail_at(file, node, path, fmt::format("expected {}, got {}: not-a-number and infinity are not accepted", what,
+                                          describe(node)));
+  if (!has_plain_number_syntax(s))
+    fail_at(file, node, path, fmt::format("expected {} (a plain decimal number), got {}", what, describe(node)));
+  if (s.size() > max_number_chars)
+    fail_at(file, node, path, fmt::format("expected {} written in at most {} characters, got {} characters", what,
+                                          max_number_chars, s.size()));
+  const auto v = parse_plain_number(s);
+  if (!v || *v < min || *v > max)  // !v: too large for a double, such as 1e400
+    fail_at(file, node, path, fmt::format("{} is out of range; expected {} from {} to {}", s, what, min, max));
   return *v;
 }
 
@@ -147,8 +311,8 @@ MapReader::MapReader(std::string file, const YAML::Node& node, std::string path,
     if (std::find(allowed.begin(), allowed.end(), key) == allowed.end()) {
       const std::string near = closest_match(key, allowed);
       fail_at(file_, k, path_,
-              near.empty() ? fmt::format("unknown key \"{}\"; valid keys here are: {}", key, fmt::join(allowed, ", "))
-                           : fmt::format("unknown key \"{}\"; did you mean \"{}\"?", key, near));
+              near.empty() ? fmt::format("unknown key {}; valid keys here are: {}", quote_for_message(key), fmt::join(allowed, ", "))
+                           : fmt::format("unknown key {}; did you mean \"{}\"?", quote_for_message(key), near));
     }
     auto [pos, fresh] = seen.emplace(key, k.Mark());
     if (!fresh)
@@ -189,15 +353,14 @@ std::optional<double> MapReader::optional_number(std::string_view key, double mi
 
 long MapReader::integer(std::string_view key, long min, long max, std::string_view what) const {
   const YAML::Node n = node(key);
-  static const std::regex whole(R"(^[+-]?[0-9]+$)");
-  if (!n.IsScalar() || !std::regex_match(n.Scalar(), whole))
+  if (!n.IsScalar() || !has_whole_number_syntax(n.Scalar()))
     fail(n, path_of(key), fmt::format("expected {} (a whole number), got {}", what, describe(n)));
   const std::string& s = n.Scalar();
   errno = 0;
   char* end = nullptr;
   const long v = std::strtol(s.c_str(), &end, 10);
   if (errno == ERANGE || v < min || v > max)
-    fail(n, path_of(key), fmt::format("{} is out of range; expected {} from {} to {}", s, what, min, max));
+    fail(n, path_of(key), fmt::format("{} is out of range; expected {} from {} to {}", clip(s), what, min, max));
   return v;
 }
 

@@ -27,8 +27,18 @@ std::string closest_match(std::string_view word, const std::vector<std::string_v
 // the value must be finite. nullopt otherwise.
 std::optional<double> parse_plain_number(std::string_view text);
 
+// `text` in double quotes for a message: control bytes escaped as \xNN, cut to about 40 characters (at a
+// UTF-8 character boundary) with "..." when longer.
+std::string quote_for_message(std::string_view text);
+
+// Resource guards applied while loading, before any reader walks the nodes: aliases may share one node many
+// times, so a few kB of YAML can stand for billions of nodes ("billion laughs").
+constexpr size_t max_expanded_nodes = 1'000'000;  // nodes counted with every alias expanded
+constexpr int max_nesting_depth = 64;             // maps and lists inside each other
+
 // Load a YAML file; throws InputError for an unreadable path, a directory, an empty document, a parse error
-// (with its line and column) or nesting too deep.
+// (with its line and column), nesting too deep, more than one document, an alias inside the node it refers
+// to, or aliases expanding beyond max_expanded_nodes.
 YAML::Node load_file(const std::string& path);
 // Load YAML from text (for tests and fuzzing); `name` stands for the file in messages.
 YAML::Node load_text(const std::string& text, const std::string& name);

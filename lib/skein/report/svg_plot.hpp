@@ -10,8 +10,8 @@ namespace skein {
 enum class SeriesStyle { line, step, points };
 
 struct Series {
-  std::string label;          // legend entry
-  std::vector<double> x, y;   // same length; a NaN in y breaks a line (used for antimeridian crossings)
+  std::string label{};        // legend entry
+  std::vector<double> x{}, y{};  // same length; a NaN in y breaks a line (used for antimeridian crossings)
   SeriesStyle style = SeriesStyle::line;
 };
 
@@ -19,7 +19,7 @@ struct PlotAxes {
   std::string title;
   std::string x_label;  // with unit, e.g. "latitude (deg)"
   std::string y_label;
-  std::optional<double> x_min, x_max, y_min, y_max;  // fixed ranges; otherwise from the data
+  std::optional<double> x_min{}, x_max{}, y_min{}, y_max{};  // fixed ranges; otherwise from the data
 };
 
 // A chart of one or more series.

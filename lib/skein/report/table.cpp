@@ -125,6 +125,61 @@ nlohmann::ordered_json rows_to_json(const Table& t) {
   return arr;
 }
 
+namespace {
+std::string heading_with_unit(const Column& c) { return c.unit.empty() ? c.heading : c.heading + " (" + c.unit + ")"; }
+}  // namespace
+
+std::string html_escape(const std::string& s) {
+  std::string out;
+  for (char ch : s) {
+    switch (ch) {
+      case '&': out += "&amp;"; break;
+      case '<': out += "&lt;"; break;
+      case '>': out += "&gt;"; break;
+      case '"': out += "&quot;"; break;
+      default: out += ch;
+    }
+  }
+  return out;
+}
+
+std::string render_markdown(const Table& t) {
+  std::string out;
+  if (!t.title.empty()) out += "**" + t.title + "**\n\n";
+  out += "|";
+  for (const auto& c : t.columns) out += " " + heading_with_unit(c) + " |";
+  out += "\n|";
+  for (size_t j = 0; j < t.columns.size(); ++j) out += std::holds_alternative<std::string>(t.rows.empty() ? Cell() : t.rows[0][j]) ? " --- |" : " ---: |";
+  out += "\n";
+  for (const auto& row : t.rows) {
+    out += "|";
+    for (size_t j = 0; j < row.size(); ++j) {
+      std::string cell = cell_text(row[j], t.columns[j], false);
+      for (size_t p = cell.find('|'); p != std::string::npos; p = cell.find('|', p + 2)) cell.replace(p, 1, "\\|");
+      out += " " + cell + " |";
+    }
+    out += "\n";
+  }
+  return out;
+}
+
+std::string render_html(const Table& t) {
+  std::string out = "<table>\n";
+  if (!t.title.empty()) out += "<caption>" + html_escape(t.title) + "</caption>\n";
+  out += "<thead><tr>";
+  for (const auto& c : t.columns) out += "<th>" + html_escape(heading_with_unit(c)) + "</th>";
+  out += "</tr></thead>\n<tbody>\n";
+  for (const auto& row : t.rows) {
+    out += "<tr>";
+    for (size_t j = 0; j < row.size(); ++j) {
+      const bool num = !std::holds_alternative<std::string>(row[j]);
+      out += std::string(num ? "<td class=\"num\">" : "<td>") + html_escape(cell_text(row[j], t.columns[j], false)) + "</td>";
+    }
+    out += "</tr>\n";
+  }
+  return out + "</tbody>\n</table>\n";
+}
+
 std::string render(const Table& t, OutputFormat f) {
   switch (f) {
     case OutputFormat::table: return render_text(t);

@@ -38,6 +38,12 @@ std::string render_text(const Table& t);
 std::string render_csv(const Table& t);
 // An array of objects keyed by column key; numbers at full double precision.
 nlohmann::ordered_json rows_to_json(const Table& t);
+// A Markdown (pipe) table with a bold title line; headings carry their units.
+std::string render_markdown(const Table& t);
+// An HTML <table> with a caption (text escaped).
+std::string render_html(const Table& t);
+// Escape text for HTML.
+std::string html_escape(const std::string& s);
 // Render in the given format; JSON is {"title": ..., "rows": [...]}.
 std::string render(const Table& t, OutputFormat f);
 

@@ -1,0 +1,45 @@
+// skein budget DESIGN.yaml: natural lifetime and station-keeping delta-v budget per shell.
+#include <memory>
+
+#include "commands.hpp"
+#include "skein/budget/budget.hpp"
+#include "skein/design/design_file.hpp"
+#include "skein/report/budget_tables.hpp"
+
+namespace skein::cli {
+
+void add_budget_command(CLI::App& app) {
+  struct Options {
+    std::string design;
+    std::string format = "table";
+    std::string solar;
+  };
+  auto opt = std::make_shared<Options>();
+  CLI::App* cmd = app.add_subcommand(
+      "budget", "Print per shell the natural lifetime under drag and the station-keeping delta-v budget over the "
+                "mission life (drag make-up, node drift control, sun-synchronous inclination, slot keeping, collision "
+                "avoidance, disposal, margin), with propellant by the rocket equation");
+  cmd->add_option("design", opt->design, "Design file (YAML)")->required();
+  add_format_option(*cmd, opt->format);
+  cmd->add_option("--solar", opt->solar, "Solar activity, overriding budget.solar_activity: low, mean, high or cycle")
+      ->check(CLI::IsMember({"low", "mean", "high", "cycle"}));
+  cmd->callback([opt] {
+    const Design design = read_design_file(opt->design);
+    BudgetOptions options;
+    if (!opt->solar.empty()) options.solar = solar_level_from_string(opt->solar);
+    const BudgetResult result = compute_budget(design, options);
+    print_stderr("caution: " + std::string(budget_caution) + "\n");
+    for (const auto& w : result.warnings) print_stderr("warning: " + w + "\n");
+    const OutputFormat f = format_of(opt->format);
+    if (f == OutputFormat::json) {
+      print_stdout(budget_to_json(result, design.earth.radius_km).dump(2) + "\n");
+    } else if (f == OutputFormat::csv) {
+      print_stdout(render_csv(budget_shell_table(result)));
+    } else {
+      print_stdout(render_text(budget_shell_table(result)) + "\n" + render_text(budget_lines_table(result)) + "\n" +
+                   render_text(lifetime_by_level_table(result)));
+    }
+  });
+}
+
+}  // namespace skein::cli

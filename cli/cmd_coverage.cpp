@@ -1,0 +1,156 @@
+// skein coverage DESIGN.yaml: k-fold coverage, revisit gaps and required radius over the design's ground grid.
+#include <unistd.h>
+
+#include <atomic>
+#include <chrono>
+#include <condition_variable>
+#include <memory>
+#include <mutex>
+#include <thread>
+
+#include <fmt/format.h>
+#include <tbb/global_control.h>
+
+#include "commands.hpp"
+#include "skein/coverage/evaluate.hpp"
+#include "skein/design/design_file.hpp"
+#include "skein/error.hpp"
+#include "skein/io/atomic_write.hpp"
+#include "skein/report/coverage_tables.hpp"
+
+namespace skein::cli {
+namespace {
+
+constexpr const char* caution =
+    "caution: these are preliminary design estimates; operations, collision avoidance and licensing follow the "
+    "applicable national rules, international debris-mitigation standards and licensed flight-dynamics practice.\n";
+
+// Redraws "coverage: NN %" on stderr every half second while the evaluation runs (only on a terminal).
+class ProgressLine {
+ public:
+  ProgressLine(std::atomic<std::int64_t>& done, double total) : done_(done), total_(total) {
+    thread_ = std::thread([this] {
+      std::unique_lock<std::mutex> lock(m_);
+      while (!cv_.wait_for(lock, std::chrono::milliseconds(500), [this] { return stop_; }))
+        print_stderr(fmt::format("\rcoverage: {:5.1f} %", 100.0 * static_cast<double>(done_.load()) / total_));
+    });
+  }
+  ~ProgressLine() {
+    {
+      std::lock_guard<std::mutex> lock(m_);
+      stop_ = true;
+    }
+    cv_.notify_all();
+    thread_.join();
+    print_stderr("\r                    \r");
+  }
+
+ private:
+  std::atomic<std::int64_t>& done_;
+  double total_;
+  std::mutex m_;
+  std::condition_variable cv_;
+  bool stop_ = false;
+  std::thread thread_;
+};
+
+}  // namespace
+
+void add_coverage_command(CLI::App& app) {
+  struct Options {
+    std::string design;
+    std::string format = "table";
+    std::optional<double> spacing, span_h, step, elevation;
+    std::optional<int> fold;
+    bool exhaustive = false, force = false;
+    int threads = 0;
+    std::string points_file;
+  };
+  auto opt = std::make_shared<Options>();
+  CLI::App* cmd = app.add_subcommand(
+      "coverage", "Percent of time each ground point sees at least k satellites above the elevation mask, revisit gaps, "
+                  "mean response time, satellites in view and the required coverage radius, area-weighted over the grid "
+                  "and by latitude band");
+  cmd->add_option("design", opt->design, "Design file (YAML)")->required();
+  add_format_option(*cmd, opt->format);
+  cmd->add_option("--spacing", opt->spacing, "Grid cell size in degrees (overrides coverage.grid.spacing_deg)");
+  cmd->add_option("--span", opt->span_h, "Time span in hours from the epoch (overrides coverage.span_h)");
+  cmd->add_option("--step", opt->step, "Time step in seconds (overrides coverage.step_s)");
+  cmd->add_option("--elevation", opt->elevation, "Minimum elevation in degrees (overrides coverage.min_elevation_deg)");
+  cmd->add_option("--fold", opt->fold, "Largest fold K reported (overrides coverage.max_fold)");
+  cmd->add_flag("--exhaustive", opt->exhaustive, "Test every (satellite, point) pair instead of culling footprints");
+  cmd->add_option("--threads", opt->threads, "Worker threads (default: all cores); results do not depend on it")
+      ->check(CLI::Range(1, 1024));
+  cmd->add_flag("--force", opt->force, "Run even when the memory or work estimate exceeds the limits");
+  cmd->add_option("--points", opt->points_file, "Also write the per-point table (with cell bounds) to this CSV file");
+  cmd->callback([opt] {
+    const Design design = read_design_file(opt->design);
+    CoverageOptions options;
+    options.spacing_deg = opt->spacing;
+    if (opt->span_h) options.span_s = *opt->span_h * 3600.0;
+    options.step_s = opt->step;
+    options.min_elevation_deg = opt->elevation;
+    options.max_fold = opt->fold;
+    options.mode = opt->exhaustive ? CoverageMode::exhaustive : CoverageMode::culled;
+    options.force = opt->force;
+    std::unique_ptr<tbb::global_control> threads;
+    if (opt->threads > 0)
+      threads = std::make_unique<tbb::global_control>(tbb::global_control::max_allowed_parallelism,
+                                                      static_cast<size_t>(opt->threads));
+    std::atomic<std::int64_t> done{0};
+    CoverageResult result;
+    if (isatty(STDERR_FILENO)) {
+      const CoverageWorkEstimate est = estimate_coverage_work(design, options);
+      options.progress = &done;
+      ProgressLine line(done, std::max(1.0, est.point_steps));
+      result = evaluate_coverage(design, options);
+    } else {
+      result = evaluate_coverage(design, options);
+    }
+    const Table overview = coverage_overview_table(result), folds = coverage_fold_table(result),
+                bands = coverage_band_table(result);
+    if (!opt->points_file.empty()) write_file_atomic(opt->points_file, render_csv(coverage_point_table(result)));
+    const OutputFormat f = format_of(opt->format);
+    if (f == OutputFormat::json) {
+      nlohmann::ordered_json j;
+      const CoverageAggregate& a = result.total;
+      j["design"] = result.design;
+      j["grid"] = std::string(to_string(result.grid));
+      j["spacing_deg"] = result.spacing_deg;
+      j["grid_points"] = result.points.size();
+      j["satellites"] = result.satellites;
+      j["span_s"] = result.span_s;
+      j["step_s"] = result.step_s;
+      j["min_elevation_deg"] = result.min_elevation_deg;
+      j["nadir_half_angle_deg"] = result.nadir_half_angle_deg ? nlohmann::ordered_json(*result.nadir_half_angle_deg)
+                                                              : nlohmann::ordered_json(nullptr);
+      j["max_fold"] = result.max_fold;
+      j["mode"] = std::string(to_string(result.mode));
+      j["percent_covered"] = a.percent_by_fold.at(0);
+      j["percent_covered_by_fold"] = a.percent_by_fold;
+      j["max_gap_s"] = a.max_gap_s;
+      j["mean_gap_s"] = a.mean_gap_s;
+      j["p95_gap_s"] = a.p95_gap_s;
+      j["gap_count"] = a.gap_count;
+      j["mean_response_time_s"] = a.mean_response_time_s;
+      j["mean_in_view"] = a.mean_in_view;
+      j["max_in_view"] = a.max_in_view;
+      j["required_radius_deg"] = result.required_radius_deg;
+      j["worst_instant_covered_percent_by_fold"] = result.worst_instant_covered_percent;
+      j["latitude_bands"] = rows_to_json(bands);
+      j["in_view_distribution"] = rows_to_json(in_view_distribution_table(result));
+      j["gap_quantiles_s"] = result.gap_quantiles_s;
+      j["pair_tests"] = result.pair_tests;
+      j["point_steps"] = result.point_steps;
+      print_stdout(j.dump(2) + "\n");
+    } else if (f == OutputFormat::csv) {
+      print_stdout(render_csv(bands));
+    } else {
+      print_stdout(render_text(overview) + "\n" + render_text(folds) + "\n" + render_text(bands) + "\n" +
+                   render_text(in_view_distribution_table(result)));
+    }
+    print_stderr(caution);
+  });
+}
+
+}  // namespace skein::cli

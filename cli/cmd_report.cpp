@@ -1,0 +1,88 @@
+// skein report DESIGN.yaml --out reports/NAME/: the whole report folder for one design.
+#include <tbb/global_control.h>
+
+#include <chrono>
+#include <cstdlib>
+#include <filesystem>
+#include <memory>
+#include <optional>
+
+#include <fmt/format.h>
+
+#include "commands.hpp"
+#include "skein/design/design_file.hpp"
+#include "skein/error.hpp"
+#include "skein/io/folder_write.hpp"
+#include "skein/report/report.hpp"
+
+namespace skein::cli {
+namespace {
+
+// OEM CREATION_DATE: --creation-date, else SOURCE_DATE_EPOCH (the reproducible-builds convention), else now.
+std::string creation_date(const std::string& flag) {
+  if (!flag.empty()) {
+    const auto e = parse_utc_iso8601(flag);
+    if (!e) throw InputError("--creation-date " + flag + ": expected an ISO 8601 UTC instant such as 2027-03-01T00:00:00Z");
+    return format_utc_iso8601(*e, 3).substr(0, 23);
+  }
+  double unix_s = 0;
+  if (const char* sde = std::getenv("SOURCE_DATE_EPOCH")) {
+    char* end = nullptr;
+    unix_s = std::strtod(sde, &end);
+    if (end == sde || *end != '\0' || unix_s < 0)
+      throw InputError(fmt::format("SOURCE_DATE_EPOCH={}: expected whole seconds since 1970-01-01", sde));
+  } else {
+    unix_s = static_cast<double>(std::chrono::duration_cast<std::chrono::seconds>(
+                                     std::chrono::system_clock::now().time_since_epoch()).count());
+  }
+  return format_utc_iso8601(add_seconds(*parse_utc_iso8601("1970-01-01T00:00:00Z"), unix_s), 3).substr(0, 23);
+}
+
+}  // namespace
+
+void add_report_command(CLI::App& app) {
+  struct Options {
+    std::string design, out, solar, created;
+    int threads = 0;
+    bool force = false;
+    double ephemeris_step_s = 60.0;
+  };
+  auto opt = std::make_shared<Options>();
+  CLI::App* cmd = app.add_subcommand(
+      "report", "Write the whole report folder for a design: summary.md, index.html, tables (CSV, JSON), plots (SVG), "
+                "coverage cells (GeoJSON) and ephemerides (CCSDS OEM)");
+  cmd->add_option("design", opt->design, "Design file (YAML)")->required();
+  cmd->add_option("--out", opt->out, "Report folder (default: reports/DESIGN-NAME/); replaced as a whole");
+  cmd->add_option("--solar", opt->solar, "Solar activity for the budget: low, mean, high or cycle (default: the design's)")
+      ->check(CLI::IsMember({"low", "mean", "high", "cycle"}));
+  cmd->add_option("--creation-date", opt->created,
+                  "CREATION_DATE written in the OEM files (default: SOURCE_DATE_EPOCH if set, else now); the only "
+                  "time stamp in the report, so fixing it makes the folder byte-identical across runs");
+  cmd->add_option("--ephemeris-step", opt->ephemeris_step_s, "OEM sample step in seconds (default 60)")
+      ->check(CLI::Range(1.0, 86400.0));
+  cmd->add_option("--threads", opt->threads, "Worker threads (default: all cores); results do not depend on it")
+      ->check(CLI::Range(1, 1024));
+  cmd->add_flag("--force", opt->force, "Run the coverage even when its work estimate exceeds the limits");
+  cmd->callback([opt] {
+    const Design design = read_design_file(opt->design);
+    std::optional<tbb::global_control> threads;
+    if (opt->threads > 0) threads.emplace(tbb::global_control::max_allowed_parallelism, static_cast<size_t>(opt->threads));
+    ReportOptions options;
+    options.coverage.force = opt->force;
+    if (!opt->solar.empty()) options.budget.solar = solar_level_from_string(opt->solar);
+    options.creation_date = creation_date(opt->created);
+    options.ephemeris_step_s = opt->ephemeris_step_s;
+    const std::string out =
+        opt->out.empty() ? "reports/" + std::filesystem::path(opt->design).stem().string() : opt->out;
+    const Report report = build_report(design, options);
+    write_folder_atomic(out, report.files);
+    print_stdout(fmt::format("Report for \"{}\" written to {} ({} files).\n"
+                             "  summary:  {}/summary.md\n  browser:  {}/index.html\n"
+                             "  tables:   {}/tables/   plots: {}/plots/   exports: {}/exports/\n",
+                             design.name, out, report.files.size(), out, out, out, out, out));
+    for (const auto& w : report.budget.warnings) print_stderr("skein: warning: " + w + "\n");
+    print_stderr(std::string("Caution: ") + std::string(report_caution) + "\n");
+  });
+}
+
+}  // namespace skein::cli

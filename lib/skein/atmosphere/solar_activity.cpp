@@ -1,0 +1,68 @@
+#include "skein/atmosphere/solar_activity.hpp"
+
+#include <algorithm>
+#include <cassert>
+#include <cmath>
+
+#include "skein/constants.hpp"
+
+namespace skein {
+
+std::string_view to_string(SolarLevel level) {
+  switch (level) {
+    case SolarLevel::low: return "low";
+    case SolarLevel::mean: return "mean";
+    case SolarLevel::high: return "high";
+    case SolarLevel::cycle: return "cycle";
+  }
+  return "mean";
+}
+
+std::optional<SolarLevel> solar_level_from_string(std::string_view text) {
+  for (SolarLevel l : {SolarLevel::low, SolarLevel::mean, SolarLevel::high, SolarLevel::cycle})
+    if (to_string(l) == text) return l;
+  return std::nullopt;
+}
+
+SolarIndices solar_indices(SolarLevel level) {
+  switch (level) {
+    case SolarLevel::low: return {65.0, 0.0};
+    case SolarLevel::high: return {250.0, 25.0};
+    case SolarLevel::mean: return {140.0, 15.0};
+    case SolarLevel::cycle: break;
+  }
+  assert(false && "the cycle has no fixed indices");
+  return {140.0, 15.0};
+}
+
+double solar_cycle_phase_at(double jd) {
+  const double cycles = (jd - solar_minimum_reference_jd) / (solar_cycle_years * days_per_julian_year);
+  return cycles - std::floor(cycles);
+}
+
+SolarIndices solar_cycle_indices(double phase) {
+  const double x = 0.5 * (1.0 - std::cos(two_pi * phase));
+  const SolarIndices lo = solar_indices(SolarLevel::low), hi = solar_indices(SolarLevel::high);
+  return {lo.f107_sfu + x * (hi.f107_sfu - lo.f107_sfu), lo.ap + x * (hi.ap - lo.ap)};
+}
+
+SolarIndices solar_indices_at(const SolarActivity& activity, double t_days) {
+  if (activity.level != SolarLevel::cycle) return solar_indices(activity.level);
+  return solar_cycle_indices(activity.phase_at_epoch + t_days / (solar_cycle_years * days_per_julian_year));
+}
+
+double ips_density_kg_m3(double h, const SolarIndices& s) {
+  const double scale_km = (900.0 + 2.5 * (s.f107_sfu - 70.0) + 1.5 * s.ap) / (27.0 - 0.012 * (h - 200.0));
+  return 6e-10 * std::exp(-(h - 175.0) / scale_km);
+}
+
+double solar_density_factor(double altitude_km, const SolarIndices& indices) {
+  static const SolarIndices mean = solar_indices(SolarLevel::mean);
+  const double h = std::clamp(altitude_km, 180.0, 500.0);
+  const double ratio = ips_density_kg_m3(h, indices) / ips_density_kg_m3(h, mean);
+  if (altitude_km >= 180.0) return ratio;
+  const double taper = std::clamp((altitude_km - 100.0) / 80.0, 0.0, 1.0);
+  return std::pow(ratio, taper);
+}
+
+}  // namespace skein

@@ -1,0 +1,377 @@
+#include "skein/budget/budget.hpp"
+
+#include <algorithm>
+#include <cassert>
+#include <cmath>
+
+#include <fmt/format.h>
+#include <tbb/parallel_for.h>
+
+#include "skein/atmosphere/harris_priester.hpp"
+#include "skein/budget/impulses.hpp"
+#include "skein/budget/solar_inclination_drift.hpp"
+#include "skein/design/constellation.hpp"
+#include "skein/error.hpp"
+#include "skein/orbit/secular.hpp"
+#include "skein/time/sun.hpp"
+
+namespace skein {
+namespace {
+
+DensityFn density_of(const OrbitAtmosphere& atm) {
+  return [atm](double h, double t) { return orbit_density_kg_m3(atm, h, t); };
+}
+
+// Nodes (rad) of every plane of a shell.
+std::vector<double> plane_nodes_rad(const Shell& shell) {
+  std::vector<double> out;
+  if (shell.pattern == PatternKind::explicit_planes) {
+    for (const auto& p : shell.explicit_planes) out.push_back(p.raan_deg * rad_per_deg);
+  } else {
+    for (int p = 0; p < shell.planes; ++p) out.push_back(walker_plane_raan_rad(shell, p));
+  }
+  return out;
+}
+
+// Drag make-up over the mission life: let a fall by the deadband, raise it back with a Hohmann pair;
+// at the end of life the remaining deficit is also counted, so the line equals the drag loss over the life.
+struct Makeup {
+  double dv_m_s = 0.0;
+  long raises = 0;
+  bool reentered = false;  // the deadband reaches below the re-entry altitude
+};
+Makeup drag_makeup(const EarthModel& earth, const OrbitAtmosphere& atm, double b, double a0, double e0, double life_days,
+                   double deadband_km, double reentry_km) {
+  Makeup m;
+  const DensityFn rho = density_of(atm);
+  DecayOptions opt;
+  opt.reentry_altitude_km = reentry_km;
+  opt.stop_below_a_km = a0 - deadband_km;
+  opt.record = false;
+  const bool fixed = atm.solar.level != SolarLevel::cycle;
+  constexpr long max_cycles = 200000;  // a raise every few minutes for years: far beyond any real plan
+  double t = 0.0;
+  while (t < life_days) {
+    opt.horizon_days = life_days - t;
+    const DecayResult r = integrate_decay(earth, rho, b, {t, a0, e0}, opt);
+    if (r.stop == DecayStop::reentry) {
+      m.reentered = true;
+      return m;
+    }
+    m.dv_m_s += hohmann_dv_m_s(earth.mu_km3_s2, r.end.a_km, a0);
+    if (r.stop == DecayStop::horizon) break;
+    ++m.raises;
+    const double cycle_days = r.end.t_days - t;
+    t = r.end.t_days;
+    if (fixed && m.raises == 1 && cycle_days > 0.0) {
+      // Fixed activity: every cycle is the same. Count the whole cycles, then integrate the remainder.
+      const double whole = std::floor((life_days - t) / cycle_days);
+      m.raises += static_cast<long>(whole);
+      m.dv_m_s += whole * hohmann_dv_m_s(earth.mu_km3_s2, a0 - deadband_km, a0);
+      t += whole * cycle_days;
+      if (t >= life_days) break;
+      opt.horizon_days = life_days - t;
+      const DecayResult rest = integrate_decay(earth, rho, b, {t, a0, e0}, opt);
+      if (rest.stop == DecayStop::target) {  // rounding left one more whole cycle
+        ++m.raises;
+        m.dv_m_s += hohmann_dv_m_s(earth.mu_km3_s2, rest.end.a_km, a0);
+        opt.horizon_days = std::max(life_days - rest.end.t_days, 0.0);
+        if (opt.horizon_days > 0.0) {
+          const DecayResult tail = integrate_decay(earth, rho, b, {rest.end.t_days, a0, e0}, opt);
+          m.dv_m_s += hohmann_dv_m_s(earth.mu_km3_s2, tail.end.a_km, a0);
+        }
+      } else {
+        m.dv_m_s += hohmann_dv_m_s(earth.mu_km3_s2, rest.end.a_km, a0);
+      }
+      break;
+    }
+    if (m.raises >= max_cycles) {
+      m.dv_m_s *= life_days / t;  // scale the rate found so far to the whole life
+      m.raises = static_cast<long>(std::llround(static_cast<double>(m.raises) * life_days / t));
+      break;
+    }
+  }
+  return m;
+}
+
+std::string fmt_years(double days) { return fmt::format("{:.2f} yr", days / days_per_julian_year); }
+
+ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel level, double phase0,
+                         const BudgetOptions& options) {
+  const EarthModel& earth = design.earth;
+  const BudgetSpec& spec = design.budget;
+  const Spacecraft& sc = design.spacecraft;
+  ShellBudget out;
+  out.name = shell.name;
+  out.satellites = shell.satellites;
+  out.planes = shell.planes;
+  out.altitude_km = shell.a_km - earth.radius_km;
+  out.perigee_km = shell.a_km * (1.0 - shell.e) - earth.radius_km;
+  out.apogee_km = shell.a_km * (1.0 + shell.e) - earth.radius_km;
+  out.inclination_deg = shell.inclination_deg;
+  out.sun_synchronous = shell.sun_synchronous;
+  const double b = sc.ballistic_coefficient_m2_kg();
+  out.ballistic_coefficient_m2_kg = b;
+  const double i_rad = shell.inclination_deg * rad_per_deg;
+  const double life_days = spec.mission_life_years * days_per_julian_year;
+  const double life_s = life_days * seconds_per_day;
+  const double horizon_days = options.lifetime_horizon_years * days_per_julian_year;
+  const double reentry_km = spec.reentry_altitude_km;
+  const JulianDate jd = julian_date(design.epoch);
+  const std::vector<double> nodes = plane_nodes_rad(shell);
+
+  if (shell.a_km - spec.deadband_km - earth.radius_km <= reentry_km + 1.0)
+    throw InputError(fmt::format("{}: shell {}: budget.deadband_km {} reaches the re-entry altitude {} km; expected a "
+                                 "smaller deadband", design.file, shell.name, spec.deadband_km, reentry_km));
+
+  // Density model for this shell.
+  OrbitAtmosphere atm;
+  atm.kind = spec.atmosphere;
+  if (atm.kind == AtmosphereKind::harris_priester) {
+    const double n = spec.harris_priester_exponent.value_or(harris_priester_default_exponent(i_rad));
+    double w = 0.0;
+    for (double node : nodes) {
+      const double offset = node - mean_sun_right_ascension_rad(jd);
+      w += harris_priester_mean_weight(i_rad, shell.sun_synchronous, offset, n);
+    }
+    atm.bulge_weight = w / static_cast<double>(nodes.size());
+    out.bulge_weight = atm.bulge_weight;
+  }
+  atm.solar = {level, phase0};
+  const double top_km = atmosphere_table_top_km(atm.kind);
+  if (out.apogee_km > top_km)
+    out.warnings.push_back(fmt::format("altitude {:.0f} km is above the {} table ({:.0f} km): densities there are "
+                                       "extrapolated with the top layer's scale height",
+                                       out.apogee_km, to_string(atm.kind), top_km));
+
+  // Natural decay under each level.
+  auto decay_under = [&](SolarLevel l) {
+    OrbitAtmosphere a = atm;
+    a.solar.level = l;
+    DecayOptions opt;
+    opt.reentry_altitude_km = reentry_km;
+    opt.horizon_days = horizon_days;
+    const DecayResult r = integrate_decay(earth, density_of(a), b, {0.0, shell.a_km, shell.e}, opt);
+    LevelDecay d;
+    d.level = l;
+    d.lifetime_days = r.end.t_days;
+    d.lower_bound = r.stop != DecayStop::reentry;
+    const double gap = options.curve_gap_days > 0.0 ? options.curve_gap_days : std::max(d.lifetime_days / 150.0, 1e-3);
+    d.curve = thin_curve(r.curve, gap, options.curve_drop_km);
+    return d;
+  };
+  if (options.level_curves)
+    for (SolarLevel l : {SolarLevel::low, SolarLevel::mean, SolarLevel::high}) out.decay.push_back(decay_under(l));
+  auto selected = std::find_if(out.decay.begin(), out.decay.end(), [&](const LevelDecay& d) { return d.level == level; });
+  if (selected == out.decay.end()) {
+    out.decay.push_back(decay_under(level));
+    selected = out.decay.end() - 1;
+  }
+  out.lifetime_natural_days = selected->lifetime_days;
+  out.lifetime_lower_bound = selected->lower_bound;
+  if (out.lifetime_lower_bound)
+    out.warnings.push_back(fmt::format("still in orbit after the {:.0f}-year horizon: the natural lifetime is a lower bound",
+                                       options.lifetime_horizon_years));
+  if (!sc.isp_s && out.lifetime_natural_days < life_days)
+    out.warnings.push_back(fmt::format("natural lifetime {} is shorter than the {:.2f}-year mission life and the "
+                                       "spacecraft has no propulsion (spacecraft.isp_s absent): the shell cannot last "
+                                       "its life", fmt_years(out.lifetime_natural_days), spec.mission_life_years));
+
+  const double v = circular_speed_m_s(earth.mu_km3_s2, shell.a_km);
+  const double k = spec.sigma_multiple;
+
+  // (a) drag make-up
+  const Makeup mk = drag_makeup(earth, atm, b, shell.a_km, shell.e, life_days, spec.deadband_km, reentry_km);
+  if (mk.reentered)
+    out.warnings.push_back("the orbit re-enters within one deadband cycle: drag make-up is not possible at this altitude");
+  out.drag_makeup_manoeuvres = mk.raises;
+  out.drag_makeup_interval_days = mk.raises > 0 ? life_days / static_cast<double>(mk.raises) : 0.0;
+  out.drag_makeup_dv_m_s_per_year = mk.dv_m_s / spec.mission_life_years;
+  out.dv_lines.push_back({"drag_makeup", mk.dv_m_s,
+                          fmt::format("{} raises through a {} km deadband over {:.2f} yr ({}, {} activity)", mk.raises,
+                                      spec.deadband_km, spec.mission_life_years, to_string(atm.kind), to_string(level))});
+
+  // (b) node drift control
+  const NodeRateSensitivity sens = node_rate_sensitivity(earth, shell.a_km, shell.e, i_rad);
+  const double sig_i = spec.injection_sigma_inclination_deg * rad_per_deg;
+  const double rate_sigma = std::hypot(sens.per_km * spec.injection_sigma_altitude_km, sens.per_rad * sig_i);
+  out.node_spread_uncontrolled_deg = k * std::sqrt(2.0) * rate_sigma * life_s * deg_per_rad;
+  double node_dv = 0.0;
+  if (spec.node_control == NodeControl::correct)
+    node_dv = hohmann_dv_m_s(earth.mu_km3_s2, shell.a_km, shell.a_km + k * spec.injection_sigma_altitude_km) +
+              plane_change_dv_m_s(v, k * sig_i);
+  out.dv_lines.push_back(
+      {"node_drift_control", node_dv,
+       spec.node_control == NodeControl::correct
+           ? fmt::format("remove {}-sigma injection errors ({} km, {} deg) once; uncontrolled they would spread the "
+                         "nodes by {:.2f} deg over the life", k, k * spec.injection_sigma_altitude_km,
+                         k * spec.injection_sigma_inclination_deg, out.node_spread_uncontrolled_deg)
+           : fmt::format("not controlled: {}-sigma node spread {:.2f} deg over the life", k,
+                         out.node_spread_uncontrolled_deg)});
+
+  // (c) sun-synchronous inclination maintenance
+  double sso_dv = 0.0;
+  std::string sso_basis = "not a sun-synchronous shell";
+  if (shell.sun_synchronous) {
+    double worst = 0.0;
+    for (double node : nodes) {
+      const double ltan = local_time_of_node_h(node, jd);
+      const double rate = solar_inclination_rate_rad_s(earth, shell.a_km, i_rad, ltan);
+      if (std::abs(rate) > std::abs(worst)) worst = rate;
+    }
+    out.sso_inclination_drift_deg_per_year = worst * seconds_per_julian_year * deg_per_rad;
+    const double di = std::abs(worst) * life_s;
+    if (spec.sso_inclination_control) {
+      sso_dv = plane_change_dv_m_s(v, di);
+      sso_basis = fmt::format("remove {:.4f} deg/yr of solar-gravity drift (worst plane) over the life",
+                              out.sso_inclination_drift_deg_per_year);
+    } else {
+      sso_basis = fmt::format("not controlled: {:.4f} deg/yr drift accepted", out.sso_inclination_drift_deg_per_year);
+    }
+  }
+  out.dv_lines.push_back({"sso_inclination", sso_dv, sso_basis});
+
+  // (d) slot keeping
+  const double per_shift = phasing_dv_m_s(shell.a_km, spec.slot_shift_deg * rad_per_deg, spec.slot_shift_days * seconds_per_day);
+  out.dv_lines.push_back({"slot_keeping", per_shift * spec.slot_shifts_per_year * spec.mission_life_years,
+                          fmt::format("{} shifts/yr of {} deg in {} days", spec.slot_shifts_per_year,
+                                      spec.slot_shift_deg, spec.slot_shift_days)});
+
+  // (e) collision avoidance
+  out.dv_lines.push_back({"collision_avoidance", spec.avoidance_per_year * spec.avoidance_dv_m_s * spec.mission_life_years,
+                          fmt::format("{} manoeuvres/yr x {} m/s", spec.avoidance_per_year, spec.avoidance_dv_m_s)});
+
+  // (f) disposal, from the maintained orbit at the end of the life
+  const double r_apo = shell.a_km * (1.0 + shell.e);
+  double disposal_dv = 0.0;
+  std::string disposal_basis;
+  out.disposal_perigee_km = out.perigee_km;
+  OrbitAtmosphere eol = atm;  // the cycle continues from the end of the life
+  switch (spec.disposal) {
+    case DisposalMode::direct: {
+      const double rp = earth.radius_km + spec.disposal_perigee_km;
+      if (rp < shell.a_km * (1.0 - shell.e)) {
+        disposal_dv = perigee_lowering_dv_m_s(earth.mu_km3_s2, r_apo, shell.a_km, rp);
+        out.disposal_perigee_km = spec.disposal_perigee_km;
+      }
+      disposal_basis = fmt::format("direct re-entry: perigee to {} km", spec.disposal_perigee_km);
+      break;
+    }
+    case DisposalMode::natural_decay: {
+      const double rule_days = spec.disposal_rule_years * days_per_julian_year;
+      const auto hp = disposal_perigee_for_rule_km(earth, eol, b, shell.a_km, shell.e, life_days, reentry_km, rule_days);
+      if (hp) {
+        const double rp = earth.radius_km + *hp;
+        disposal_dv = perigee_lowering_dv_m_s(earth.mu_km3_s2, r_apo, shell.a_km, rp);
+        out.disposal_perigee_km = *hp;
+        const double a_new = 0.5 * (r_apo + rp), e_new = (r_apo - rp) / (r_apo + rp);
+        out.disposal_lifetime_days =
+            natural_lifetime_days(earth, eol, b, a_new, e_new, life_days, reentry_km, rule_days * 2.0);
+      } else {
+        out.disposal_lifetime_days =
+            natural_lifetime_days(earth, eol, b, shell.a_km, shell.e, life_days, reentry_km, rule_days);
+      }
+      disposal_basis = fmt::format("lower the perigee to {:.1f} km to re-enter within {} yr ({} activity)",
+                                   out.disposal_perigee_km, spec.disposal_rule_years, to_string(level));
+      break;
+    }
+    case DisposalMode::none:
+      disposal_basis = "no disposal manoeuvre budgeted";
+      out.warnings.push_back("no disposal manoeuvre is budgeted (budget.disposal.mode: none)");
+      break;
+  }
+  out.dv_lines.push_back({"disposal", disposal_dv, disposal_basis});
+
+  // (g) margin
+  double sum = 0.0;
+  for (const auto& l : out.dv_lines) sum += l.dv_m_s;
+  const double margin = sum * spec.margin_percent / 100.0;
+  out.dv_lines.push_back({"margin", margin, fmt::format("{}% of the lines above", spec.margin_percent)});
+  out.total_dv_m_s = sum + margin;
+  out.fleet_dv_m_s = out.total_dv_m_s * shell.satellites;
+
+  if (sc.isp_s) {
+    out.propellant_kg = propellant_mass_kg(sc.dry_mass_kg, out.total_dv_m_s, *sc.isp_s);
+    out.fleet_propellant_kg = *out.propellant_kg * shell.satellites;
+    if (sc.propellant_capacity_kg && *out.propellant_kg > *sc.propellant_capacity_kg) {
+      out.exceeds_tank = true;
+      out.warnings.push_back(fmt::format("propellant {:.2f} kg per satellite exceeds the tank capacity {} kg",
+                                         *out.propellant_kg, *sc.propellant_capacity_kg));
+    }
+  } else {
+    out.warnings.push_back("no specific impulse (spacecraft.isp_s): propellant mass is not computed");
+  }
+
+  for ([[maybe_unused]] const auto& l : out.dv_lines) assert(std::isfinite(l.dv_m_s) && l.dv_m_s >= 0.0);
+  assert(std::isfinite(out.total_dv_m_s) && std::isfinite(out.lifetime_natural_days));
+  return out;
+}
+
+}  // namespace
+
+double natural_lifetime_days(const EarthModel& earth, const OrbitAtmosphere& atm, double b, double a_km, double e,
+                             double t0_days, double reentry_km, double horizon_days, bool* lower_bound) {
+  DecayOptions opt;
+  opt.reentry_altitude_km = reentry_km;
+  opt.horizon_days = horizon_days;
+  opt.record = false;
+  const DecayResult r = integrate_decay(earth, density_of(atm), b, {t0_days, a_km, e}, opt);
+  if (lower_bound) *lower_bound = r.stop != DecayStop::reentry;
+  return r.end.t_days - t0_days;
+}
+
+std::optional<double> disposal_perigee_for_rule_km(const EarthModel& earth, const OrbitAtmosphere& atm, double b,
+                                                   double a_km, double e, double t0_days, double reentry_km,
+                                                   double rule_days) {
+  bool longer = false;
+  natural_lifetime_days(earth, atm, b, a_km, e, t0_days, reentry_km, rule_days, &longer);
+  if (!longer) return std::nullopt;
+  const double r_apo = a_km * (1.0 + e);
+  auto outlives = [&](double hp_km) {
+    const double rp = earth.radius_km + hp_km;
+    bool lb = false;
+    natural_lifetime_days(earth, atm, b, 0.5 * (r_apo + rp), (r_apo - rp) / (r_apo + rp), t0_days, reentry_km, rule_days,
+                          &lb);
+    return lb;
+  };
+  double lo = reentry_km, hi = a_km * (1.0 - e) - earth.radius_km;  // lo re-enters at once, hi outlives the rule
+  while (hi - lo > 0.05) {
+    const double mid = 0.5 * (lo + hi);
+    (outlives(mid) ? hi : lo) = mid;
+  }
+  return lo;  // the highest perigee found that still meets the rule
+}
+
+BudgetResult compute_budget(const Design& design, const BudgetOptions& options) {
+  const BudgetSpec& spec = design.budget;
+  const double b = design.spacecraft.ballistic_coefficient_m2_kg();
+  if (!(b > 0.0) || !std::isfinite(b))
+    throw InputError(fmt::format("{}: spacecraft: the ballistic coefficient Cd A / m = {} m^2/kg is not positive; "
+                                 "expected drag_coefficient, drag_area_m2 and dry_mass_kg above zero", design.file, b));
+  if (!(spec.mission_life_years > 0.0) || spec.mission_life_years > 100.0)
+    throw InputError(fmt::format("{}: budget.mission_life_years {} is outside (0, 100]", design.file, spec.mission_life_years));
+  if (!(options.lifetime_horizon_years > 0.0))
+    throw InputError("the lifetime horizon must be positive");
+  BudgetResult out;
+  out.design = design.name;
+  out.mission_life_years = spec.mission_life_years;
+  out.atmosphere = spec.atmosphere;
+  out.solar = options.solar.value_or(spec.solar);
+  out.solar_cycle_phase_at_epoch = spec.solar_cycle_phase.value_or(solar_cycle_phase_at(julian_date(design.epoch).value()));
+  out.reentry_altitude_km = spec.reentry_altitude_km;
+  out.shells.resize(design.shells.size());
+  tbb::parallel_for(size_t{0}, design.shells.size(), [&](size_t s) {
+    out.shells[s] = shell_budget(design, design.shells[s], out.solar, out.solar_cycle_phase_at_epoch, options);
+  });
+  bool all_propellant = true;
+  double fleet_prop = 0.0;
+  for (const auto& s : out.shells) {
+    out.fleet_dv_m_s += s.fleet_dv_m_s;
+    if (s.fleet_propellant_kg) fleet_prop += *s.fleet_propellant_kg; else all_propellant = false;
+    for (const auto& w : s.warnings) out.warnings.push_back("shell " + s.name + ": " + w);
+  }
+  if (all_propellant) out.fleet_propellant_kg = fleet_prop;
+  return out;
+}
+
+}  // namespace skein

@@ -1,0 +1,111 @@
+#pragma once
+// The station-keeping delta-v budget and natural lifetime of every shell of a design: the content of
+// `skein budget`, reused by the report and by sweeps.
+#include <optional>
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include "skein/atmosphere/atmosphere.hpp"
+#include "skein/atmosphere/solar_activity.hpp"
+#include "skein/design/design.hpp"
+#include "skein/lifetime/decay.hpp"
+
+namespace skein {
+
+// Printed with every budget (CLI stderr, report, JSON "caution").
+inline constexpr std::string_view budget_caution =
+    "these are preliminary design estimates; operational manoeuvre planning, collision avoidance and licensing "
+    "follow the applicable national rules, international debris-mitigation standards and licensed "
+    "flight-dynamics practice.";
+
+struct BudgetOptions {
+  std::optional<SolarLevel> solar;        // overrides the design's budget.solar_activity (CLI --solar)
+  double lifetime_horizon_years = 200.0;  // natural decay is followed at most this long (then a lower bound)
+  bool level_curves = true;               // also decay every shell under low, mean and high activity
+  double curve_gap_days = 0.0;            // decay-curve row spacing; 0: lifetime / 150
+  double curve_drop_km = 5.0;             // and a row at least every this many km of mean altitude
+};
+
+// One budget line, per satellite, over the mission life.
+struct DvLine {
+  std::string name;    // drag_makeup, node_drift_control, sso_inclination, slot_keeping,
+                       // collision_avoidance, disposal, margin
+  double dv_m_s = 0.0;
+  std::string basis;   // how it was computed, for tables and the report
+};
+
+// The natural decay from the design orbit at epoch under one solar level.
+struct LevelDecay {
+  SolarLevel level = SolarLevel::mean;
+  double lifetime_days = 0.0;
+  bool lower_bound = false;  // still in orbit at the horizon: lifetime_days is the horizon
+  std::vector<DecayPoint> curve;  // thinned, from epoch to re-entry (or the horizon)
+};
+
+struct ShellBudget {
+  std::string name;
+  int satellites = 0;
+  int planes = 0;
+  double altitude_km = 0.0;   // mean a - Re
+  double perigee_km = 0.0;
+  double apogee_km = 0.0;
+  double inclination_deg = 0.0;
+  bool sun_synchronous = false;
+  double ballistic_coefficient_m2_kg = 0.0;
+  std::optional<double> bulge_weight;   // Harris-Priester orbit-averaged cos^n(psi/2)
+  // natural lifetime under the selected activity
+  double lifetime_natural_days = 0.0;
+  bool lifetime_lower_bound = false;
+  std::vector<LevelDecay> decay;        // low, mean, high (when level_curves), plus the selected level if cycle
+  // (a) drag make-up
+  double drag_makeup_dv_m_s_per_year = 0.0;
+  long drag_makeup_manoeuvres = 0;      // altitude raises over the life
+  double drag_makeup_interval_days = 0.0;  // mean time between raises; 0 when there is none
+  // (b) node drift control
+  double node_spread_uncontrolled_deg = 0.0;  // k-sigma relative node drift between two planes over the life
+  // (c) sun-synchronous inclination drift, worst plane (signed), 0 for other shells
+  double sso_inclination_drift_deg_per_year = 0.0;
+  std::vector<DvLine> dv_lines;
+  double total_dv_m_s = 0.0;            // per satellite, margin included
+  double fleet_dv_m_s = 0.0;            // total_dv_m_s x satellites
+  std::optional<double> propellant_kg;  // per satellite; none without isp_s
+  std::optional<double> fleet_propellant_kg;
+  bool exceeds_tank = false;            // propellant_kg above spacecraft.propellant_capacity_kg
+  // (f) disposal
+  double disposal_perigee_km = 0.0;     // perigee altitude after the disposal burn
+  std::optional<double> disposal_lifetime_days;  // natural lifetime after disposal (natural-decay mode)
+  std::vector<std::string> warnings;
+};
+
+struct BudgetResult {
+  std::string design;
+  double mission_life_years = 0.0;
+  AtmosphereKind atmosphere = AtmosphereKind::harris_priester;
+  SolarLevel solar = SolarLevel::mean;
+  double solar_cycle_phase_at_epoch = 0.0;
+  double reentry_altitude_km = 120.0;
+  std::vector<ShellBudget> shells;
+  double fleet_dv_m_s = 0.0;
+  std::optional<double> fleet_propellant_kg;  // none when any shell has none
+  std::vector<std::string> warnings;          // every shell's warnings, "shell NAME: ..."
+};
+
+// Compute the budget. Throws InputError for a non-positive or non-finite ballistic coefficient, a mission
+// life out of (0, 100] years, or a deadband that reaches the re-entry altitude. Never returns NaN.
+BudgetResult compute_budget(const Design& design, const BudgetOptions& options = {});
+
+// Natural lifetime (days) of a mean orbit (a, e) for ballistic coefficient b_m2_kg under `atmosphere`,
+// starting t0_days after the epoch; `lower_bound` is set when it outlives horizon_days.
+double natural_lifetime_days(const EarthModel& earth, const OrbitAtmosphere& atmosphere, double b_m2_kg, double a_km,
+                             double e, double t0_days, double reentry_altitude_km, double horizon_days,
+                             bool* lower_bound = nullptr);
+
+// The perigee altitude (km) to which a burn at apogee of the orbit (a, e) must lower the perigee so that
+// the orbit re-enters within rule_days (found by bisection to 0.05 km with the decay model); nullopt when
+// the orbit already re-enters within rule_days.
+std::optional<double> disposal_perigee_for_rule_km(const EarthModel& earth, const OrbitAtmosphere& atmosphere,
+                                                   double b_m2_kg, double a_km, double e, double t0_days,
+                                                   double reentry_altitude_km, double rule_days);
+
+}  // namespace skein

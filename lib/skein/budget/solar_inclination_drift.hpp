@@ -1,0 +1,25 @@
+#pragma once
+// Secular inclination drift of a sun-synchronous orbit caused by the Sun's gravity.
+#include "skein/constants.hpp"
+
+namespace skein {
+
+// Sun's gravitational parameter (km^3/s^2), IAU 2015 Resolution B3 nominal GM_sun = 1.3271244e20 m^3/s^2,
+// and the astronomical unit 149 597 870.7 km (IAU 2012 Resolution B2).
+inline constexpr double sun_mu_km3_s2 = 1.3271244e11;
+inline constexpr double astronomical_unit_km = 149597870.7;
+inline constexpr double ecliptic_obliquity_rad = 23.43928 * rad_per_deg;  // J2000 (IAU 2006)
+
+// di/dt (rad/s) of a circular orbit of radius a_km and inclination i_rad whose node stays at the local
+// mean time ltan_h (hours) of the ascending node, from the Sun's quadrupole tide averaged over the orbit
+// and then over a year (Sun on a circular ecliptic; the node follows the mean Sun):
+//   <R> = mu_s a^2 / (4 r_s^3) (1 - 3 (h . s)^2),   di/dt = -1/(n a^2 sin i) dR/dOmega
+//       = 3 n_s^2 / (2 n) (h . s) [cos Omega cos lambda + sin Omega sin lambda cos eps],
+// with h the orbit normal, s the Sun direction at ecliptic longitude lambda, Omega = lambda + (ltan_h - 12) 15 deg.
+// Derived here from Lagrange's planetary equation for di/dt (Vallado 2013 eq. 9-24) and the third-body
+// disturbing function (Vallado 2013 sec. 8.6.3); without obliquity it reduces to
+// di/dt = 3 n_s^2 / (4 n) sin i sin(2 (ltan - 12 h) 15 deg/h). The Moon's term is periodic for a
+// sun-synchronous node and is left out.
+double solar_inclination_rate_rad_s(const EarthModel& earth, double a_km, double i_rad, double ltan_h);
+
+}  // namespace skein

@@ -1,0 +1,751 @@
+#include "skein/coverage/evaluate.hpp"
+
+#include <algorithm>
+#include <cassert>
+#include <cmath>
+#include <numeric>
+
+#include <fmt/format.h>
+#include <tbb/blocked_range.h>
+#include <tbb/parallel_for.h>
+#include <tbb/parallel_reduce.h>
+
+#include "skein/coverage/ground_geometry.hpp"
+#include "skein/design/constellation.hpp"
+#include "skein/error.hpp"
+#include "skein/orbit/propagate.hpp"
+#include "skein/time/epoch.hpp"
+
+namespace skein {
+namespace {
+
+// Bins of the satellites-in-view distribution: 0 .. in_view_bins-2, and "in_view_bins-1 or more".
+constexpr int in_view_bins = 33;
+// The geodetic vertical departs from the geocentric radial by at most 0.1924 deg on WGS-84 (the largest
+// difference of geodetic and geocentric latitude, at 45 deg; follows from tan psi = (1 - e^2) tan phi,
+// Snyder 1987 eq. 3-28). The footprint cull widens the mask by this much, plus a safety margin.
+constexpr double vertical_deflection_rad = 0.2 * rad_per_deg;
+constexpr double cull_margin_rad = 0.25 * rad_per_deg;
+// Candidate entries held per chunk of time steps (bounds the culling buffers to about 80 MB).
+constexpr double chunk_entry_budget = 2e7;
+
+// Sample instants t_j = j * step for j < n - 1 and t_{n-1} = span.
+struct Sampling {
+  long n = 0;
+  double step = 0.0, span = 0.0;
+  double time(long j) const { return j == n - 1 ? span : static_cast<double>(j) * step; }
+};
+
+Sampling make_sampling(double span_s, double step_s) {
+  Sampling s;
+  s.step = step_s;
+  s.span = span_s;
+  s.n = static_cast<long>(std::ceil(span_s / step_s - 1e-9)) + 1;
+  return s;
+}
+
+// Ground point data laid out for the inner loops.
+struct PointGeo {
+  double rx, ry, rz;  // Earth-fixed position, km
+  double nx, ny, nz;  // geodetic vertical
+  double ux, uy, uz;  // geocentric unit vector
+};
+
+// Satellite positions (Earth-fixed) for a window of sample instants.
+struct PositionBuffer {
+  long first = 0, count = 0;
+  int sats = 0;
+  std::vector<double> x, y, z, ux, uy, uz;  // [local * sats + s]
+  std::vector<double> cull_rad;              // per-satellite cull radius at each instant
+  std::vector<double> guaranteed_cos;        // per instant: every satellite within this cosine is a candidate
+  size_t at(long step, int s) const { return static_cast<size_t>((step - first) * sats + s); }
+};
+
+// Candidate satellites of each point at one instant (CSR, satellites in increasing order).
+struct StepCandidates {
+  std::vector<std::uint32_t> offset;
+  std::vector<int> sats;
+};
+
+// Grid rows for footprint culling: points of one geocentric latitude, sorted by longitude.
+struct Row {
+  double psi = 0.0, sin_psi = 0.0, cos_psi = 0.0;
+  std::vector<double> lon;  // rad, ascending, -pi..pi
+  std::vector<int> point;
+};
+
+struct Geometry {
+  double sin_min = 0.0;
+  bool cone = false;
+  double cos_cone = 0.0;
+};
+
+// Visibility margin of satellite s from point p at a buffered instant: sin(elevation) - sin(mask), and, with a
+// payload cone, the smaller of that and cos(off-nadir) - cos(half-angle). Visible when >= 0.
+inline double margin(const PointGeo& p, const PositionBuffer& b, size_t i, const Geometry& g) {
+  const double dx = b.x[i] - p.rx, dy = b.y[i] - p.ry, dz = b.z[i] - p.rz;
+  const double len = std::sqrt(dx * dx + dy * dy + dz * dz);
+  double m = (dx * p.nx + dy * p.ny + dz * p.nz) / len - g.sin_min;
+  if (g.cone) m = std::min(m, -(dx * b.ux[i] + dy * b.uy[i] + dz * b.uz[i]) / len - g.cos_cone);
+  return m;
+}
+
+inline bool visible(const PointGeo& p, const PositionBuffer& b, size_t i, const Geometry& g) {
+  const double dx = b.x[i] - p.rx, dy = b.y[i] - p.ry, dz = b.z[i] - p.rz;
+  if (dx * p.nx + dy * p.ny + dz * p.nz < 0.0) return false;  // below the horizontal plane (mask >= 0)
+  return margin(p, b, i, g) >= 0.0;
+}
+
+// Time of the sign change of the margin of (p, s) inside (t_{j-1}, t_j). The margin is known exactly at the
+// sample instants; between them it is replaced by the interpolating polynomial through up to four instants
+// (j-2 .. j+1), whose root is found by the Illinois variant of regula falsi (Dowell & Jarratt, BIT 11 (1971) 168).
+double crossing_time(const PointGeo& p, const PositionBuffer& b, const Sampling& smp, long j, int s, const Geometry& g) {
+  long lo = std::max<long>(0, j - 2), hi = std::min<long>(smp.n - 1, j + 1);
+  lo = std::max(lo, b.first);
+  hi = std::min(hi, b.first + b.count - 1);
+  double t[4], f[4];
+  int m = 0;
+  for (long k = lo; k <= hi; ++k, ++m) {
+    t[m] = smp.time(k);
+    f[m] = margin(p, b, b.at(k, s), g);
+  }
+  const auto poly = [&](double x) {
+    double sum = 0.0;
+    for (int a = 0; a < m; ++a) {
+      double l = 1.0;
+      for (int c = 0; c < m; ++c)
+        if (c != a) l *= (x - t[c]) / (t[a] - t[c]);
+      sum += f[a] * l;
+    }
+    return sum;
+  };
+  double a = smp.time(j - 1), bb = smp.time(j);
+  double fa = poly(a), fb = poly(bb);
+  if (fa == 0.0) return a;
+  if ((fa < 0.0) == (fb < 0.0)) return 0.5 * (a + bb);  // not bracketed by rounding: take the midpoint
+  int side = 0;
+  for (int it = 0; it < 40 && bb - a > 1e-6; ++it) {
+    const double c = (a * fb - bb * fa) / (fb - fa);
+    const double fc = poly(c);
+    if (fc == 0.0) return c;
+    if ((fc < 0.0) == (fb < 0.0)) {
+      bb = c;
+      fb = fc;
+      if (side == -1) fa *= 0.5;
+      side = -1;
+    } else {
+      a = c;
+      fa = fc;
+      if (side == 1) fb *= 0.5;
+      side = 1;
+    }
+  }
+  return 0.5 * (a + bb);
+}
+
+std::vector<Row> build_rows(const std::vector<PointGeo>& geo) {
+  std::vector<int> order(geo.size());
+  std::iota(order.begin(), order.end(), 0);
+  std::vector<double> psi(geo.size()), lon(geo.size());
+  for (size_t i = 0; i < geo.size(); ++i) {
+    psi[i] = std::asin(std::clamp(geo[i].uz, -1.0, 1.0));
+    lon[i] = std::atan2(geo[i].uy, geo[i].ux);
+  }
+  std::sort(order.begin(), order.end(), [&](int a, int b) { return psi[a] != psi[b] ? psi[a] < psi[b] : lon[a] < lon[b]; });
+  std::vector<Row> rows;
+  for (int i : order) {
+    if (rows.empty() || rows.back().psi != psi[i]) {
+      Row r;
+      r.psi = psi[i];
+      r.sin_psi = std::sin(r.psi);
+      r.cos_psi = std::cos(r.psi);
+      rows.push_back(std::move(r));
+    }
+    rows.back().lon.push_back(lon[i]);
+    rows.back().point.push_back(i);
+  }
+  return rows;
+}
+
+struct Window {
+  int row;
+  std::uint32_t begin, end;
+};
+
+// Footprint culling for one instant: each satellite's cull cap is cut into latitude rows, and in each row into
+// the longitude window of half-width acos((cos lambda - sin psi sin psi_s) / (cos psi cos psi_s)) (the spherical
+// law of cosines), so the cost follows the pairs inside the caps, not satellites x points.
+void build_candidates(const PositionBuffer& b, long step, const std::vector<Row>& rows, const std::vector<double>& row_psi,
+                      size_t npoints, StepCandidates& out, std::vector<Window>& windows, std::vector<int>& window_sat) {
+  windows.clear();
+  window_sat.clear();
+  const auto add = [&](int r, const Row& row, double lo, double hi, int s) {
+    const auto b0 = std::lower_bound(row.lon.begin(), row.lon.end(), lo) - row.lon.begin();
+    const auto b1 = std::upper_bound(row.lon.begin(), row.lon.end(), hi) - row.lon.begin();
+    if (b1 > b0) {
+      windows.push_back({r, static_cast<std::uint32_t>(b0), static_cast<std::uint32_t>(b1)});
+      window_sat.push_back(s);
+    }
+  };
+  for (int s = 0; s < b.sats; ++s) {
+    const size_t i = b.at(step, s);
+    const double psi_s = std::asin(std::clamp(b.uz[i], -1.0, 1.0));
+    const double lon_s = std::atan2(b.uy[i], b.ux[i]);
+    const double lam = b.cull_rad[i];
+    const double cos_lam = std::cos(lam), sin_s = std::sin(psi_s), cos_s = std::cos(psi_s);
+    const auto r0 = std::lower_bound(row_psi.begin(), row_psi.end(), psi_s - lam) - row_psi.begin();
+    const auto r1 = std::upper_bound(row_psi.begin(), row_psi.end(), psi_s + lam) - row_psi.begin();
+    for (auto r = r0; r < r1; ++r) {
+      const Row& row = rows[static_cast<size_t>(r)];
+      const double den = row.cos_psi * cos_s;
+      double half;
+      if (den < 1e-12) {
+        if (row.sin_psi * sin_s < cos_lam) continue;
+        half = pi;
+      } else {
+        const double q = (cos_lam - row.sin_psi * sin_s) / den;
+        if (q > 1.0) continue;
+        half = q <= -1.0 ? pi : std::acos(q);
+      }
+      const int ri = static_cast<int>(r);
+      if (half >= pi) {
+        add(ri, row, -4.0, 4.0, s);
+        continue;
+      }
+      const double lo = lon_s - half, hi = lon_s + half;
+      if (lo < -pi) {
+        add(ri, row, lo + two_pi, 4.0, s);
+        add(ri, row, -4.0, hi, s);
+      } else if (hi >= pi) {
+        add(ri, row, lo, 4.0, s);
+        add(ri, row, -4.0, hi - two_pi, s);
+      } else {
+        add(ri, row, lo, hi, s);
+      }
+    }
+  }
+  out.offset.assign(npoints + 1, 0);
+  for (const Window& w : windows) {
+    const Row& row = rows[static_cast<size_t>(w.row)];
+    for (std::uint32_t k = w.begin; k < w.end; ++k) ++out.offset[static_cast<size_t>(row.point[k]) + 1];
+  }
+  for (size_t k = 0; k < npoints; ++k) out.offset[k + 1] += out.offset[k];
+  out.sats.resize(out.offset[npoints]);
+  std::vector<std::uint32_t> fill(out.offset.begin(), out.offset.end() - 1);
+  for (size_t wi = 0; wi < windows.size(); ++wi) {
+    const Window& w = windows[wi];
+    const Row& row = rows[static_cast<size_t>(w.row)];
+    for (std::uint32_t k = w.begin; k < w.end; ++k) out.sats[fill[static_cast<size_t>(row.point[k])]++] = window_sat[wi];
+  }
+}
+
+// The central angle inside which the k-th nearest satellite is expected: 1.5 times the radius of a cap holding
+// K/T of the sphere (common practice for sizing a search; only speed depends on it, not the result).
+double radius_search_rad(int k, int satellites) {
+  const double x = 1.0 - 2.0 * k / static_cast<double>(satellites);
+  if (x <= -1.0) return pi;
+  return std::min(pi, 1.5 * std::acos(x));
+}
+
+// Central angle of the widest footprint of a satellite at orbit radius r, made conservative for the ellipsoid.
+double visibility_cull_rad(double r_km, double min_ground_radius_km, const CoverageSettings& st) {
+  const double eps = std::max(0.0, st.spec.min_elevation_deg * rad_per_deg - vertical_deflection_rad);
+  const double c = min_ground_radius_km * std::cos(eps) / r_km;
+  if (c >= 1.0) return 0.0;
+  return std::acos(c) - eps + cull_margin_rad;
+}
+
+struct PointState {
+  std::vector<int> vis;
+  std::vector<float> gaps;
+  double gap_start = 0.0;
+  bool in_gap = false;
+  int count = 0;
+  int max_in_view = 0;
+  double count_time = 0.0;
+};
+
+struct Partial {
+  std::vector<double> covered;  // [local step * K + k-1]: area weight with at least k in view
+  std::int64_t pair_tests = 0;
+  std::int64_t fallbacks = 0;
+};
+
+double weighted_quantile(std::vector<std::pair<float, double>>& sample, double q) {
+  // sample sorted by value; smallest value whose cumulative weight reaches q of the total.
+  double total = 0.0;
+  for (const auto& v : sample) total += v.second;
+  double cum = 0.0;
+  for (const auto& v : sample) {
+    cum += v.second;
+    if (cum >= q * total * (1.0 - 1e-12)) return v.first;
+  }
+  return sample.back().first;
+}
+
+CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::vector<size_t>& members,
+                            const std::vector<PointState>& state, int K, double total_weight) {
+  CoverageAggregate a;
+  a.percent_by_fold.assign(static_cast<size_t>(K), 0.0);
+  double w = 0.0, gap_sum = 0.0, gap_weight = 0.0;
+  std::vector<std::pair<float, double>> pooled;
+  for (size_t i : members) {
+    const PointCoverage& p = pts[i];
+    const double pw = p.point.area_weight;
+    w += pw;
+    for (int k = 0; k < K; ++k) a.percent_by_fold[static_cast<size_t>(k)] += pw * p.percent_by_fold[static_cast<size_t>(k)];
+    a.max_gap_s = std::max(a.max_gap_s, p.max_gap_s);
+    a.gap_count += p.gap_count;
+    a.mean_response_time_s += pw * p.mean_response_time_s;
+    a.mean_in_view += pw * p.mean_in_view;
+    a.max_in_view = std::max(a.max_in_view, p.max_in_view);
+    for (float g : state[i].gaps) {
+      gap_sum += pw * g;
+      gap_weight += pw;
+      pooled.emplace_back(g, pw);
+    }
+  }
+  a.points = static_cast<long>(members.size());
+  a.area_weight = w / total_weight;
+  if (w > 0.0) {
+    for (double& v : a.percent_by_fold) v /= w;
+    a.mean_response_time_s /= w;
+    a.mean_in_view /= w;
+  }
+  if (gap_weight > 0.0) {
+    a.mean_gap_s = gap_sum / gap_weight;
+    std::stable_sort(pooled.begin(), pooled.end(), [](const auto& x, const auto& y) { return x.first < y.first; });
+    a.p95_gap_s = weighted_quantile(pooled, 0.95);
+  }
+  return a;
+}
+
+void check_positive(double v, const char* what) {
+  if (!(v > 0.0)) throw InputError(fmt::format("{} {} is not positive; expected a value above zero", what, v));
+}
+
+}  // namespace
+
+std::string_view to_string(CoverageMode mode) { return mode == CoverageMode::culled ? "culled" : "exhaustive"; }
+
+std::optional<CoverageMode> coverage_mode_from_string(std::string_view text) {
+  if (text == "culled") return CoverageMode::culled;
+  if (text == "exhaustive") return CoverageMode::exhaustive;
+  return std::nullopt;
+}
+
+CoverageSettings resolve_coverage_settings(const Design& design, const CoverageOptions& o) {
+  CoverageSettings st;
+  st.spec = design.coverage;
+  CoverageSpec& s = st.spec;
+  if (o.spacing_deg) {
+    if (s.grid == GridKind::sites) throw InputError("--spacing does not apply to a grid of sites");
+    const double v = *o.spacing_deg;
+    const double n = 180.0 / v;
+    if (!(v >= 0.01 && v <= 30.0) || std::abs(n - std::round(n)) > 1e-9)
+      throw InputError(fmt::format("--spacing {}: expected a cell size from 0.01 to 30 deg that divides 180 deg", v));
+    if (s.grid == GridKind::band) {
+      const double nb = (s.band_lat_max_deg - s.band_lat_min_deg) / v;
+      if (std::abs(nb - std::round(nb)) > 1e-9)
+        throw InputError(fmt::format("--spacing {}: the band {} to {} deg is not a whole number of cells", v,
+                                     s.band_lat_min_deg, s.band_lat_max_deg));
+    }
+    s.spacing_deg = v;
+  }
+  if (o.span_s) {
+    check_positive(*o.span_s, "--span (h)");
+    if (*o.span_s > 366.0 * 86400.0) throw InputError("--span: expected at most a year (8784 h)");
+    s.span_s = *o.span_s;
+  }
+  if (o.step_s) {
+    check_positive(*o.step_s, "--step (s)");
+    s.step_s = *o.step_s;
+  }
+  if (!(s.step_s > 0.0)) throw InputError("coverage.step_s: the step must be above zero");
+  if (s.step_s > s.span_s)
+    throw InputError(fmt::format("the step {} s is longer than the span {} s; expected step <= span", s.step_s, s.span_s));
+  if (o.min_elevation_deg) {
+    if (!(*o.min_elevation_deg >= 0.0 && *o.min_elevation_deg <= 89.0))
+      throw InputError(fmt::format("--elevation {}: expected an elevation mask from 0 to 89 deg", *o.min_elevation_deg));
+    s.min_elevation_deg = *o.min_elevation_deg;
+  }
+  st.satellites = static_cast<int>(expand_constellation(design).size());
+  if (o.max_fold) {
+    if (*o.max_fold < 1 || *o.max_fold > 16) throw InputError(fmt::format("--fold {}: expected 1 to 16", *o.max_fold));
+    if (*o.max_fold > st.satellites)
+      throw InputError(fmt::format("--fold {}: the design has only {} satellites; expected a fold of at most {}",
+                                   *o.max_fold, st.satellites, st.satellites));
+    st.max_fold = *o.max_fold;
+  } else if (s.max_fold) {
+    if (*s.max_fold > st.satellites)
+      throw InputError(fmt::format("{}: fold {} is larger than the design's {} satellites; expected at most {}",
+                                   s.max_fold_location, *s.max_fold, st.satellites, st.satellites));
+    st.max_fold = *s.max_fold;
+  } else {
+    st.max_fold = std::min(3, st.satellites);
+  }
+  return st;
+}
+
+namespace {
+
+// Estimate shared by the guard and the CLI's progress line.
+CoverageWorkEstimate estimate(const Design& design, const CoverageSettings& st, long points, CoverageMode mode) {
+  CoverageWorkEstimate e;
+  e.points = points;
+  e.steps = make_sampling(st.spec.span_s, st.spec.step_s).n;
+  e.satellites = st.satellites;
+  e.point_steps = static_cast<double>(points) * static_cast<double>(e.steps);
+  double cand = 0.0, passes = 0.0;
+  for (const Shell& sh : design.shells) {
+    const double r = sh.a_km * (1.0 + sh.e);
+    const double lam = std::max(visibility_cull_rad(r, design.earth.radius_km * (1.0 - design.earth.flattening), st),
+                                radius_search_rad(st.max_fold, st.satellites));
+    cand += sh.satellites * (1.0 - std::cos(lam)) / 2.0;
+    const double revs = st.spec.span_s / (two_pi * std::sqrt(sh.a_km * sh.a_km * sh.a_km / design.earth.mu_km3_s2));
+    passes += sh.satellites * revs * 4.0 * std::min(lam, pi / 2) / pi;
+  }
+  const double tests_per_point_step = mode == CoverageMode::exhaustive ? st.satellites : std::max(1.0, cand);
+  e.pair_tests = e.point_steps * tests_per_point_step;
+  const double gaps = std::min(passes, static_cast<double>(e.steps) / 2.0 + 1.0);
+  const double per_point = 160.0 + 16.0 * st.max_fold + 8.0 * in_view_bins + 4.0 * gaps + 8.0 * std::max(1.0, cand);
+  const double chunk = mode == CoverageMode::exhaustive ? 0.0 : 4.0 * chunk_entry_budget + 64.0 * 4.0 * (static_cast<double>(points) + 1.0);
+  e.memory_bytes = static_cast<double>(points) * per_point * 2.0 + chunk + 70.0 * st.satellites * 56.0;
+  e.seconds_2_cores = (3e-9 * e.pair_tests + 60e-9 * e.point_steps) / 2.0;
+  return e;
+}
+
+}  // namespace
+
+CoverageWorkEstimate estimate_coverage_work(const Design& design, const CoverageOptions& options) {
+  const CoverageSettings st = resolve_coverage_settings(design, options);
+  const Grid grid = build_grid(st.spec, design.earth);
+  return estimate(design, st, static_cast<long>(grid.points.size()), options.mode);
+}
+
+CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& options) {
+  const CoverageSettings st = resolve_coverage_settings(design, options);
+  const Grid grid = build_grid(st.spec, design.earth);
+  const CoverageWorkEstimate est = estimate(design, st, static_cast<long>(grid.points.size()), options.mode);
+  if (!options.force) {
+    if (est.memory_bytes > options.memory_limit_bytes)
+      throw InputError(fmt::format("this run would need about {:.1f} GiB of memory ({} points, {} instants, {} satellites), "
+                                   "above the {:.1f} GiB limit; use a coarser grid, a shorter span or a longer step, "
+                                   "or --force", est.memory_bytes / (1024.0 * 1024 * 1024), est.points, est.steps,
+                                   est.satellites, options.memory_limit_bytes / (1024.0 * 1024 * 1024)));
+    if (est.pair_tests > options.pair_test_limit)
+      throw InputError(fmt::format("this run would make about {:.2g} visibility tests (roughly {:.0f} min on 2 cores), above "
+                                   "the limit of {:.2g}; use a coarser grid, a shorter span, a longer step or culled mode, "
+                                   "or --force", est.pair_tests, est.seconds_2_cores / 60.0, options.pair_test_limit));
+  }
+
+  const std::vector<Satellite> sats = expand_constellation(design);
+  const int T = static_cast<int>(sats.size());
+  const int K = st.max_fold;
+  const size_t P = grid.points.size();
+  const Sampling smp = make_sampling(st.spec.span_s, st.spec.step_s);
+  const EarthModel& earth = design.earth;
+  const bool exhaustive = options.mode == CoverageMode::exhaustive;
+
+  std::vector<SecularOrbit> orbits;
+  orbits.reserve(sats.size());
+  for (const Satellite& s : sats) orbits.push_back(make_secular_orbit(earth, s.elements));
+  const double theta0 = greenwich_mean_sidereal_angle_rad(julian_date(design.epoch));
+
+  std::vector<PointGeo> geo(P);
+  double min_ground_radius = 1e300;
+  for (size_t i = 0; i < P; ++i) {
+    const GridPoint& g = grid.points[i];
+    const Eigen::Vector3d u = g.r_km.normalized();
+    geo[i] = {g.r_km.x(), g.r_km.y(), g.r_km.z(), g.up.x(), g.up.y(), g.up.z(), u.x(), u.y(), u.z()};
+    min_ground_radius = std::min(min_ground_radius, g.r_km.norm());
+  }
+  min_ground_radius = std::min(min_ground_radius, earth.radius_km * (1.0 - earth.flattening)) - 0.01;
+  const std::vector<Row> rows = exhaustive ? std::vector<Row>{} : build_rows(geo);
+  std::vector<double> row_psi;
+  for (const Row& r : rows) row_psi.push_back(r.psi);
+
+  Geometry gm;
+  gm.sin_min = std::sin(st.spec.min_elevation_deg * rad_per_deg);
+  if (st.spec.nadir_half_angle_deg) {
+    gm.cone = true;
+    gm.cos_cone = std::cos(*st.spec.nadir_half_angle_deg * rad_per_deg);
+  }
+  const double radius_guess = radius_search_rad(K, T);
+
+  const double cand_est = std::max(1.0, est.pair_tests / std::max(1.0, est.point_steps));
+  const long chunk = exhaustive ? 64
+                                : std::clamp(static_cast<long>(chunk_entry_budget / (static_cast<double>(P) * cand_est)), 1L, 64L);
+
+  std::vector<PointState> state(P);
+  std::vector<double> at_least(P * static_cast<size_t>(K), 0.0), worst_cos(P * static_cast<size_t>(K), 2.0);
+  std::vector<double> hist(P * in_view_bins, 0.0);
+  std::vector<double> worst_covered(static_cast<size_t>(K), 1e300);
+  std::int64_t pair_tests = 0, fallbacks = 0;
+
+  PositionBuffer buf;
+  buf.sats = T;
+  std::vector<StepCandidates> cands(static_cast<size_t>(chunk));
+
+  for (long c0 = 0; c0 < smp.n; c0 += chunk) {
+    const long c1 = std::min(smp.n, c0 + chunk);
+    buf.first = std::max<long>(0, c0 - 2);
+    const long last = std::min(smp.n - 1, c1);
+    buf.count = last - buf.first + 1;
+    const size_t cells = static_cast<size_t>(buf.count) * static_cast<size_t>(T);
+    for (auto* v : {&buf.x, &buf.y, &buf.z, &buf.ux, &buf.uy, &buf.uz, &buf.cull_rad}) v->resize(cells);
+    buf.guaranteed_cos.resize(static_cast<size_t>(buf.count));
+    tbb::parallel_for(tbb::blocked_range<long>(0, buf.count), [&](const tbb::blocked_range<long>& r) {
+      for (long l = r.begin(); l < r.end(); ++l) {
+        const long step = buf.first + l;
+        const double t = smp.time(step);
+        const double theta = theta0 + earth.rotation_rad_s * t;
+        double guaranteed = pi;
+        for (int s = 0; s < T; ++s) {
+          const Eigen::Vector3d r_ef = inertial_to_earth_fixed(state_at(earth, orbits[static_cast<size_t>(s)], t).r_km, theta);
+          const size_t i = buf.at(step, s);
+          const double len = r_ef.norm();
+          buf.x[i] = r_ef.x();
+          buf.y[i] = r_ef.y();
+          buf.z[i] = r_ef.z();
+          buf.ux[i] = r_ef.x() / len;
+          buf.uy[i] = r_ef.y() / len;
+          buf.uz[i] = r_ef.z() / len;
+          buf.cull_rad[i] = std::max(visibility_cull_rad(len, min_ground_radius, st), radius_guess);
+          guaranteed = std::min(guaranteed, buf.cull_rad[i]);
+        }
+        buf.guaranteed_cos[static_cast<size_t>(l)] = std::cos(std::max(0.0, guaranteed - 1e-7));
+      }
+    });
+    if (!exhaustive) {
+      tbb::parallel_for(tbb::blocked_range<long>(c0, c1, 1), [&](const tbb::blocked_range<long>& r) {
+        std::vector<Window> windows;
+        std::vector<int> window_sat;
+        for (long step = r.begin(); step < r.end(); ++step)
+          build_candidates(buf, step, rows, row_psi, P, cands[static_cast<size_t>(step - c0)], windows, window_sat);
+      });
+    }
+
+    const size_t nsteps = static_cast<size_t>(c1 - c0);
+    Partial identity;
+    identity.covered.assign(nsteps * static_cast<size_t>(K), 0.0);
+    const Partial part = tbb::parallel_deterministic_reduce(
+        tbb::blocked_range<size_t>(0, P, 64), identity,
+        [&](const tbb::blocked_range<size_t>& range, Partial acc) {
+          std::vector<int> fresh;
+          std::vector<double> top(static_cast<size_t>(K));
+          std::vector<std::pair<double, int>> events;
+          for (size_t p = range.begin(); p < range.end(); ++p) {
+            const PointGeo& pg = geo[p];
+            PointState& ps = state[p];
+            double* al = &at_least[p * static_cast<size_t>(K)];
+            double* wc = &worst_cos[p * static_cast<size_t>(K)];
+            double* hi = &hist[p * in_view_bins];
+            const double w = grid.points[p].area_weight;
+            const auto integrate = [&](int c, double dt) {
+              if (dt <= 0.0) return;
+              ps.count_time += c * dt;
+              hi[std::min(c, in_view_bins - 1)] += dt;
+              for (int k = 0; k < std::min(c, K); ++k) al[k] += dt;
+            };
+            for (long step = c0; step < c1; ++step) {
+              fresh.clear();
+              std::fill(top.begin(), top.end(), -2.0);
+              const auto consider = [&](int s) {
+                const size_t i = buf.at(step, s);
+                ++acc.pair_tests;
+                if (visible(pg, buf, i, gm)) fresh.push_back(s);
+                const double c = pg.ux * buf.ux[i] + pg.uy * buf.uy[i] + pg.uz * buf.uz[i];
+                if (c > top[static_cast<size_t>(K - 1)]) {
+                  int k = K - 1;
+                  while (k > 0 && top[static_cast<size_t>(k - 1)] < c) {
+                    top[static_cast<size_t>(k)] = top[static_cast<size_t>(k - 1)];
+                    --k;
+                  }
+                  top[static_cast<size_t>(k)] = c;
+                }
+              };
+              if (exhaustive) {
+                for (int s = 0; s < T; ++s) consider(s);
+              } else {
+                const StepCandidates& sc = cands[static_cast<size_t>(step - c0)];
+                for (std::uint32_t k = sc.offset[p]; k < sc.offset[p + 1]; ++k) consider(sc.sats[k]);
+                if (top[static_cast<size_t>(K - 1)] < buf.guaranteed_cos[static_cast<size_t>(step - buf.first)]) {
+                  // The k-th nearest satellite lies beyond the cull radius: find it among all satellites.
+                  ++acc.fallbacks;
+                  std::fill(top.begin(), top.end(), -2.0);
+                  for (int s = 0; s < T; ++s) {
+                    const size_t i = buf.at(step, s);
+                    const double c = pg.ux * buf.ux[i] + pg.uy * buf.uy[i] + pg.uz * buf.uz[i];
+                    if (c > top[static_cast<size_t>(K - 1)]) {
+                      int k = K - 1;
+                      while (k > 0 && top[static_cast<size_t>(k - 1)] < c) {
+                        top[static_cast<size_t>(k)] = top[static_cast<size_t>(k - 1)];
+                        --k;
+                      }
+                      top[static_cast<size_t>(k)] = c;
+                    }
+                  }
+                }
+              }
+              for (int k = 0; k < K; ++k) wc[k] = std::min(wc[k], top[static_cast<size_t>(k)]);
+              if (step == 0) {
+                ps.count = static_cast<int>(fresh.size());
+                ps.max_in_view = ps.count;
+                if (ps.count == 0) {
+                  ps.in_gap = true;
+                  ps.gap_start = 0.0;
+                }
+              } else {
+                // Rises (in fresh, not in vis) and sets (in vis, not in fresh) inside (t_{j-1}, t_j].
+                events.clear();
+                size_t a = 0, b = 0;
+                while (a < ps.vis.size() || b < fresh.size()) {
+                  if (b == fresh.size() || (a < ps.vis.size() && ps.vis[a] < fresh[b])) {
+                    events.emplace_back(crossing_time(pg, buf, smp, step, ps.vis[a], gm), -1);
+                    ++a;
+                  } else if (a == ps.vis.size() || fresh[b] < ps.vis[a]) {
+                    events.emplace_back(crossing_time(pg, buf, smp, step, fresh[b], gm), +1);
+                    ++b;
+                  } else {
+                    ++a;
+                    ++b;
+                  }
+                }
+                // Rises before sets at equal times, so no zero-length gap is made.
+                std::sort(events.begin(), events.end(), [](const auto& x, const auto& y) {
+                  return x.first != y.first ? x.first < y.first : x.second > y.second;
+                });
+                double cur = smp.time(step - 1);
+                for (const auto& [tau, delta] : events) {
+                  const double te = std::clamp(tau, cur, smp.time(step));
+                  integrate(ps.count, te - cur);
+                  cur = te;
+                  const int before = ps.count;
+                  ps.count += delta;
+                  ps.max_in_view = std::max(ps.max_in_view, ps.count);
+                  if (before == 0 && ps.count == 1 && ps.in_gap) {
+                    if (te - ps.gap_start > 0.0) ps.gaps.push_back(static_cast<float>(te - ps.gap_start));
+                    ps.in_gap = false;
+                  } else if (before == 1 && ps.count == 0) {
+                    ps.in_gap = true;
+                    ps.gap_start = te;
+                  }
+                }
+                integrate(ps.count, smp.time(step) - cur);
+                assert(ps.count == static_cast<int>(fresh.size()));
+              }
+              for (int k = 0; k < std::min(ps.count, K); ++k)
+                acc.covered[static_cast<size_t>(step - c0) * static_cast<size_t>(K) + static_cast<size_t>(k)] += w;
+              ps.vis.swap(fresh);
+            }
+          }
+          if (options.progress) options.progress->fetch_add(static_cast<std::int64_t>(range.size()) * (c1 - c0));
+          return acc;
+        },
+        [](Partial x, const Partial& y) {
+          for (size_t i = 0; i < x.covered.size(); ++i) x.covered[i] += y.covered[i];
+          x.pair_tests += y.pair_tests;
+          x.fallbacks += y.fallbacks;
+          return x;
+        });
+    pair_tests += part.pair_tests;
+    fallbacks += part.fallbacks;
+    for (size_t l = 0; l < nsteps; ++l)
+      for (int k = 0; k < K; ++k)
+        worst_covered[static_cast<size_t>(k)] =
+            std::min(worst_covered[static_cast<size_t>(k)], part.covered[l * static_cast<size_t>(K) + static_cast<size_t>(k)]);
+  }
+
+  // Per-point metrics.
+  CoverageResult res;
+  res.design = design.name;
+  res.grid = grid.kind;
+  res.spacing_deg = grid.spacing_deg;
+  res.span_s = smp.span;
+  res.step_s = smp.step;
+  res.steps = smp.n;
+  res.min_elevation_deg = st.spec.min_elevation_deg;
+  res.nadir_half_angle_deg = st.spec.nadir_half_angle_deg;
+  res.max_fold = K;
+  res.satellites = T;
+  res.mode = options.mode;
+  res.point_steps = static_cast<std::int64_t>(P) * smp.n;
+  res.pair_tests = pair_tests;
+  res.radius_fallbacks = fallbacks;
+  res.points.resize(P);
+  res.required_radius_deg.assign(static_cast<size_t>(K), 0.0);
+  res.in_view_fraction.assign(in_view_bins, 0.0);
+  for (size_t p = 0; p < P; ++p) {
+    PointState& ps = state[p];
+    if (ps.in_gap && smp.span - ps.gap_start > 0.0) ps.gaps.push_back(static_cast<float>(smp.span - ps.gap_start));
+    PointCoverage& pc = res.points[p];
+    pc.point = grid.points[p];
+    for (int k = 0; k < K; ++k) {
+      pc.percent_by_fold.push_back(100.0 * at_least[p * static_cast<size_t>(K) + static_cast<size_t>(k)] / smp.span);
+      const double rd = std::acos(std::clamp(worst_cos[p * static_cast<size_t>(K) + static_cast<size_t>(k)], -1.0, 1.0)) * deg_per_rad;
+      pc.radius_deg_by_fold.push_back(rd);
+      res.required_radius_deg[static_cast<size_t>(k)] = std::max(res.required_radius_deg[static_cast<size_t>(k)], rd);
+    }
+    pc.gap_count = static_cast<long>(ps.gaps.size());
+    if (!ps.gaps.empty()) {
+      std::vector<float> sorted = ps.gaps;
+      std::sort(sorted.begin(), sorted.end());
+      double sum = 0.0, sq = 0.0;
+      for (float g : sorted) {
+        sum += g;
+        sq += static_cast<double>(g) * g;
+      }
+      pc.max_gap_s = sorted.back();
+      pc.mean_gap_s = sum / static_cast<double>(sorted.size());
+      // Nearest-rank percentile: the ceil(0.95 n)-th smallest (common practice).
+      const size_t rank = static_cast<size_t>(std::ceil(0.95 * static_cast<double>(sorted.size())));
+      pc.p95_gap_s = sorted[std::max<size_t>(rank, 1) - 1];
+      // Mean response time: a request at a time inside a gap of length g waits on average g/2, so the time
+      // average over the span is sum(g^2) / (2 span) (SMAD 3rd ed. sec. 7.2, "mean response time").
+      pc.mean_response_time_s = sq / (2.0 * smp.span);
+    }
+    pc.mean_in_view = ps.count_time / smp.span;
+    pc.max_in_view = ps.max_in_view;
+    for (int n = 0; n < in_view_bins; ++n)
+      res.in_view_fraction[static_cast<size_t>(n)] += pc.point.area_weight * hist[p * in_view_bins + static_cast<size_t>(n)] / smp.span;
+  }
+  for (int k = 0; k < K; ++k) res.worst_instant_covered_percent.push_back(100.0 * worst_covered[static_cast<size_t>(k)]);
+
+  std::vector<size_t> all(P);
+  std::iota(all.begin(), all.end(), 0);
+  res.total = aggregate(res.points, all, state, K, 1.0);
+  const int nbands = static_cast<int>(std::lround(180.0 / st.spec.band_width_deg));
+  std::vector<std::vector<size_t>> members(static_cast<size_t>(nbands));
+  for (size_t p = 0; p < P; ++p) {
+    const int b = std::clamp(static_cast<int>(std::floor((grid.points[p].lat_deg + 90.0) / st.spec.band_width_deg)), 0, nbands - 1);
+    members[static_cast<size_t>(b)].push_back(p);
+  }
+  for (int b = 0; b < nbands; ++b) {
+    if (members[static_cast<size_t>(b)].empty()) continue;
+    LatitudeBand band;
+    band.lat_min_deg = -90.0 + b * st.spec.band_width_deg;
+    band.lat_max_deg = band.lat_min_deg + st.spec.band_width_deg;
+    band.metrics = aggregate(res.points, members[static_cast<size_t>(b)], state, K, 1.0);
+    res.bands.push_back(std::move(band));
+  }
+  std::vector<std::pair<float, double>> pooled;
+  for (size_t p = 0; p < P; ++p)
+    for (float g : state[p].gaps) pooled.emplace_back(g, grid.points[p].area_weight);
+  if (!pooled.empty()) {
+    std::stable_sort(pooled.begin(), pooled.end(), [](const auto& x, const auto& y) { return x.first < y.first; });
+    double total = 0.0;
+    for (const auto& v : pooled) total += v.second;
+    res.gap_quantiles_s.push_back(pooled.front().first);
+    double cum = 0.0;
+    size_t i = 0;
+    for (int q = 1; q <= 100; ++q) {
+      const double target = q / 100.0 * total * (1.0 - 1e-12);
+      while (i + 1 < pooled.size() && cum + pooled[i].second < target) cum += pooled[i++].second;
+      res.gap_quantiles_s.push_back(pooled[i].first);
+    }
+  }
+  return res;
+}
+
+}  // namespace skein

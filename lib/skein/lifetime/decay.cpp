@@ -1,0 +1,130 @@
+#include "skein/lifetime/decay.hpp"
+
+#include <algorithm>
+#include <cassert>
+#include <cmath>
+
+namespace skein {
+namespace {
+
+constexpr double circular_e = 1e-6;     // below this the orbit is treated as circular
+constexpr int quadrature_intervals = 32;  // trapezoid over E in [0, pi] (the integrands are even in E)
+constexpr long max_steps = 2000000;
+
+double perigee_altitude_km(const EarthModel& earth, const DecayPoint& s) {
+  return s.a_km * (1.0 - s.e) - earth.radius_km;
+}
+
+// Density scale height (km) near altitude h at time t, from the model itself.
+double scale_height_km(const DensityFn& density, double h, double t) {
+  const double r0 = density(h, t), r1 = density(h + 1.0, t);
+  if (!(r0 > 0.0) || !(r1 > 0.0) || r1 >= r0) return 50.0;  // flat or odd model: a moderate default
+  return 1.0 / std::log(r0 / r1);
+}
+
+}  // namespace
+
+DragRates drag_rates(const EarthModel& earth, const DensityFn& density, double b, double a_km, double e,
+                     double t_days) {
+  const double a_m = a_km * 1000.0;
+  const double period_s = two_pi * std::sqrt(a_km * a_km * a_km / earth.mu_km3_s2);
+  const double per_rev_to_per_day = seconds_per_day / period_s;
+  if (e < circular_e) {
+    const double rho = density(a_km - earth.radius_km, t_days);
+    return {-two_pi * b * rho * a_m * a_m / 1000.0 * per_rev_to_per_day, 0.0};
+  }
+  double ia = 0.0, ie = 0.0;
+  for (int k = 0; k <= quadrature_intervals; ++k) {
+    const double big_e = pi * k / quadrature_intervals;
+    const double w = (k == 0 || k == quadrature_intervals) ? 0.5 : 1.0;
+    const double c = std::cos(big_e);
+    const double rho = density(a_km * (1.0 - e * c) - earth.radius_km, t_days);
+    const double ratio = std::sqrt((1.0 + e * c) / (1.0 - e * c));
+    ia += w * rho * (1.0 + e * c) * ratio;  // (1+ec)^(3/2) / (1-ec)^(1/2)
+    ie += w * rho * ratio * c;
+  }
+  const double step = pi / quadrature_intervals;
+  ia *= 2.0 * step;  // the [pi, 2 pi] half mirrors [0, pi]
+  ie *= 2.0 * step;
+  return {-b * a_m * a_m * ia / 1000.0 * per_rev_to_per_day, -b * a_m * (1.0 - e * e) * ie * per_rev_to_per_day};
+}
+
+DecayResult integrate_decay(const EarthModel& earth, const DensityFn& density, double b, const DecayPoint& start,
+                            const DecayOptions& opt) {
+  assert(b > 0.0 && std::isfinite(b));
+  assert(std::isfinite(start.a_km) && start.a_km > earth.radius_km && start.e >= 0.0 && start.e < 1.0);
+  DecayResult out;
+  DecayPoint s = start;
+  if (opt.record) out.curve.push_back(s);
+  auto rates = [&](double t, double a, double e) {
+    return drag_rates(earth, density, b, a, std::max(e, 0.0), t);
+  };
+  auto crossed = [&](const DecayPoint& p) {
+    if (perigee_altitude_km(earth, p) <= opt.reentry_altitude_km) return DecayStop::reentry;
+    if (opt.stop_below_a_km > 0.0 && p.a_km <= opt.stop_below_a_km) return DecayStop::target;
+    return DecayStop::horizon;  // meaning: not crossed
+  };
+  if (DecayStop c = crossed(s); c != DecayStop::horizon) {
+    out.stop = c;
+    out.end = s;
+    return out;
+  }
+  while (true) {
+    if (s.t_days >= start.t_days + opt.horizon_days || out.steps >= max_steps) {
+      out.stop = DecayStop::horizon;
+      break;
+    }
+    const DragRates k1 = rates(s.t_days, s.a_km, s.e);
+    const double hp = perigee_altitude_km(earth, s);
+    const double length_km = std::max(scale_height_km(density, hp, s.t_days), 0.5 * s.a_km * s.e);
+    const double speed = std::abs(k1.da_km_per_day);
+    double dt = speed > 0.0 ? opt.step_fraction * length_km / speed : opt.max_step_days;
+    dt = std::clamp(dt, 1e-6, opt.max_step_days);
+    dt = std::min(dt, start.t_days + opt.horizon_days - s.t_days);
+    const DragRates k2 = rates(s.t_days + dt / 2, s.a_km + dt / 2 * k1.da_km_per_day, s.e + dt / 2 * k1.de_per_day);
+    const DragRates k3 = rates(s.t_days + dt / 2, s.a_km + dt / 2 * k2.da_km_per_day, s.e + dt / 2 * k2.de_per_day);
+    const DragRates k4 = rates(s.t_days + dt, s.a_km + dt * k3.da_km_per_day, s.e + dt * k3.de_per_day);
+    DecayPoint next;
+    next.t_days = s.t_days + dt;
+    next.a_km = s.a_km + dt / 6 * (k1.da_km_per_day + 2 * k2.da_km_per_day + 2 * k3.da_km_per_day + k4.da_km_per_day);
+    next.e = s.e + dt / 6 * (k1.de_per_day + 2 * k2.de_per_day + 2 * k3.de_per_day + k4.de_per_day);
+    if (next.e < circular_e) next.e = 0.0;
+    ++out.steps;
+    const DecayStop c = crossed(next);
+    if (c != DecayStop::horizon) {
+      // Interpolate linearly to the crossing of the stop quantity within the step.
+      double f = 1.0;
+      if (c == DecayStop::reentry) {
+        const double h0 = perigee_altitude_km(earth, s), h1 = perigee_altitude_km(earth, next);
+        f = h0 > h1 ? (h0 - opt.reentry_altitude_km) / (h0 - h1) : 1.0;
+      } else {
+        f = s.a_km > next.a_km ? (s.a_km - opt.stop_below_a_km) / (s.a_km - next.a_km) : 1.0;
+      }
+      f = std::clamp(f, 0.0, 1.0);
+      DecayPoint hit{s.t_days + f * dt, s.a_km + f * (next.a_km - s.a_km), s.e + f * (next.e - s.e)};
+      s = hit;
+      if (opt.record) out.curve.push_back(s);
+      out.stop = c;
+      break;
+    }
+    s = next;
+    if (opt.record) out.curve.push_back(s);
+  }
+  out.end = s;
+  return out;
+}
+
+std::vector<DecayPoint> thin_curve(const std::vector<DecayPoint>& curve, double max_gap_days, double max_drop_km) {
+  std::vector<DecayPoint> kept;
+  if (curve.empty()) return kept;
+  kept.push_back(curve.front());
+  for (size_t k = 1; k + 1 < curve.size(); ++k) {
+    const DecayPoint& last = kept.back();
+    if (curve[k].t_days - last.t_days >= max_gap_days || std::abs(last.a_km - curve[k].a_km) >= max_drop_km)
+      kept.push_back(curve[k]);
+  }
+  if (curve.size() > 1) kept.push_back(curve.back());
+  return kept;
+}
+
+}  // namespace skein

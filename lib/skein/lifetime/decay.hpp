@@ -1,0 +1,60 @@
+#pragma once
+// Natural orbit decay under drag: orbit-averaged mean semi-major axis and eccentricity.
+#include <functional>
+#include <vector>
+
+#include "skein/constants.hpp"
+
+namespace skein {
+
+// Density (kg/m^3) at an altitude (km) and a time (days after the epoch).
+using DensityFn = std::function<double(double altitude_km, double t_days)>;
+
+// Orbit-averaged drag rates of a and e for ballistic coefficient B = Cd A / m (m^2/kg), in a
+// non-rotating atmosphere. Per revolution (E = eccentric anomaly, r = a (1 - e cos E)):
+//   delta a = -B a^2 Int_0^2pi rho(r) (1 + e cos E)^(3/2) / (1 - e cos E)^(1/2) dE
+//   delta e = -B a (1 - e^2) Int_0^2pi rho(r) [(1 + e cos E)/(1 - e cos E)]^(1/2) cos E dE
+// divided by the Kepler period. For e = 0: delta a = -2 pi B rho a^2, so da/dt = -rho B sqrt(mu a).
+// Source: D.G. King-Hele, "Theory of Satellite Orbits in an Atmosphere" (Butterworths 1964), ch. 3,
+// the per-revolution changes with atmospheric rotation factor F = 1 (also SMAD, Wertz & Larson 1999, sec. 8.1).
+struct DragRates {
+  double da_km_per_day = 0.0;
+  double de_per_day = 0.0;
+};
+DragRates drag_rates(const EarthModel& earth, const DensityFn& density, double b_m2_kg, double a_km, double e,
+                     double t_days);
+
+struct DecayPoint {
+  double t_days = 0.0;
+  double a_km = 0.0;
+  double e = 0.0;
+};
+
+struct DecayOptions {
+  double reentry_altitude_km = 120.0;   // decay ends when the perigee altitude reaches this
+  double horizon_days = 200.0 * days_per_julian_year;  // integration stops here (lifetime then a lower bound)
+  double stop_below_a_km = 0.0;         // also stop when a falls to this (deadband cycles); 0: not used
+  double step_fraction = 0.03;          // step so |da| <= fraction x the perigee density scale height
+  double max_step_days = 30.0;          // resolves the solar cycle; also bounds long-lived runs
+  bool record = true;                   // keep the curve
+};
+
+enum class DecayStop { reentry, horizon, target };
+
+struct DecayResult {
+  DecayStop stop = DecayStop::horizon;
+  DecayPoint end;                   // state at the stop (interpolated to the crossing)
+  std::vector<DecayPoint> curve;    // every step (when recorded), from the start to `end`
+  long steps = 0;
+};
+
+// Integrate from `start` (t, a, e) with classical RK4 on (a, e), steps set by the perigee density scale
+// height (step_fraction) and capped by max_step_days. Asserts b_m2_kg > 0 and finite state.
+DecayResult integrate_decay(const EarthModel& earth, const DensityFn& density, double b_m2_kg,
+                            const DecayPoint& start, const DecayOptions& options);
+
+// A few hundred points of a curve for tables and plots: keeps the first and last points and any point at
+// least `max_gap_days` or `max_drop_km` (mean altitude) after the last kept one.
+std::vector<DecayPoint> thin_curve(const std::vector<DecayPoint>& curve, double max_gap_days, double max_drop_km);
+
+}  // namespace skein

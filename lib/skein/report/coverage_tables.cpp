@@ -1,0 +1,127 @@
+#include "skein/report/coverage_tables.hpp"
+
+#include <fmt/format.h>
+
+namespace skein {
+
+Table coverage_overview_table(const CoverageResult& r) {
+  Table t;
+  t.title = fmt::format("Coverage of {} ({} grid, {} points, {} satellites, mask {} deg, {} mode)", r.design,
+                        to_string(r.grid), r.points.size(), r.satellites, r.min_elevation_deg, to_string(r.mode));
+  t.columns = {{"grid_points", "points", "", 0},
+               {"percent_covered", "covered", "%", 3},
+               {"max_gap_s", "max gap", "s", 1},
+               {"mean_gap_s", "mean gap", "s", 1},
+               {"p95_gap_s", "p95 gap", "s", 1},
+               {"gap_count", "gaps", "", 0},
+               {"mean_response_time_s", "mean response", "s", 1},
+               {"mean_in_view", "mean in view", "", 3},
+               {"max_in_view", "max in view", "", 0}};
+  const CoverageAggregate& a = r.total;
+  t.add_row({static_cast<long>(r.points.size()), a.percent_by_fold.at(0), a.max_gap_s, a.mean_gap_s, a.p95_gap_s,
+             a.gap_count, a.mean_response_time_s, a.mean_in_view, static_cast<long>(a.max_in_view)});
+  return t;
+}
+
+Table coverage_fold_table(const CoverageResult& r) {
+  Table t;
+  t.title = "Coverage by fold (at least k satellites in view)";
+  t.columns = {{"fold", "k", "", 0},
+               {"percent_covered", "time covered", "%", 3},
+               {"worst_instant_covered_percent", "worst instant area", "%", 3},
+               {"required_radius_deg", "required radius", "deg", 3}};
+  for (int k = 0; k < r.max_fold; ++k) {
+    const size_t i = static_cast<size_t>(k);
+    t.add_row({static_cast<long>(k + 1), r.total.percent_by_fold[i], r.worst_instant_covered_percent[i],
+               r.required_radius_deg[i]});
+  }
+  return t;
+}
+
+Table coverage_band_table(const CoverageResult& r) {
+  Table t;
+  t.title = "Coverage by latitude band";
+  t.columns = {{"lat_min_deg", "lat from", "deg", 1}, {"lat_max_deg", "lat to", "deg", 1}, {"points", "points", "", 0},
+               {"area_percent", "area", "%", 3}};
+  for (int k = 0; k < r.max_fold; ++k)
+    t.columns.push_back({fmt::format("percent_covered_k{}", k + 1), fmt::format("covered k>={}", k + 1), "%", 3});
+  for (Column c : std::vector<Column>{{"max_gap_s", "max gap", "s", 1},
+                                      {"mean_gap_s", "mean gap", "s", 1},
+                                      {"p95_gap_s", "p95 gap", "s", 1},
+                                      {"mean_response_time_s", "mean response", "s", 1},
+                                      {"mean_in_view", "mean in view", "", 3},
+                                      {"max_in_view", "max in view", "", 0}})
+    t.columns.push_back(c);
+  for (const LatitudeBand& b : r.bands) {
+    std::vector<Cell> row{b.lat_min_deg, b.lat_max_deg, b.metrics.points, 100.0 * b.metrics.area_weight};
+    for (double v : b.metrics.percent_by_fold) row.emplace_back(v);
+    for (Cell c : std::vector<Cell>{b.metrics.max_gap_s, b.metrics.mean_gap_s, b.metrics.p95_gap_s,
+                                    b.metrics.mean_response_time_s, b.metrics.mean_in_view,
+                                    static_cast<long>(b.metrics.max_in_view)})
+      row.push_back(c);
+    t.add_row(std::move(row));
+  }
+  return t;
+}
+
+Table coverage_point_table(const CoverageResult& r) {
+  Table t;
+  t.title = "Coverage by grid point";
+  t.columns = {{"name", "name", "", 0},          {"lat_deg", "lat", "deg", 4},
+               {"lon_deg", "lon", "deg", 4},     {"height_km", "height", "km", 3},
+               {"area_weight", "weight", "", 8}, {"cell_lat_min_deg", "cell lat min", "deg", 4},
+               {"cell_lat_max_deg", "cell lat max", "deg", 4}, {"cell_lon_min_deg", "cell lon min", "deg", 4},
+               {"cell_lon_max_deg", "cell lon max", "deg", 4}};
+  for (int k = 0; k < r.max_fold; ++k)
+    t.columns.push_back({fmt::format("percent_covered_k{}", k + 1), fmt::format("covered k>={}", k + 1), "%", 3});
+  for (Column c : std::vector<Column>{{"max_gap_s", "max gap", "s", 1},
+                                      {"mean_gap_s", "mean gap", "s", 1},
+                                      {"p95_gap_s", "p95 gap", "s", 1},
+                                      {"gap_count", "gaps", "", 0},
+                                      {"mean_response_time_s", "mean response", "s", 1},
+                                      {"mean_in_view", "mean in view", "", 3},
+                                      {"max_in_view", "max in view", "", 0}})
+    t.columns.push_back(c);
+  for (int k = 0; k < r.max_fold; ++k)
+    t.columns.push_back({fmt::format("radius_deg_k{}", k + 1), fmt::format("radius k={}", k + 1), "deg", 3});
+  for (const PointCoverage& p : r.points) {
+    std::vector<Cell> row{p.point.name, p.point.lat_deg, p.point.lon_deg, p.point.height_km, p.point.area_weight};
+    if (p.point.cell) {
+      for (double v : {p.point.cell->lat_min_deg, p.point.cell->lat_max_deg, p.point.cell->lon_min_deg,
+                       p.point.cell->lon_max_deg})
+        row.emplace_back(v);
+    } else {
+      for (int i = 0; i < 4; ++i) row.emplace_back(std::monostate{});
+    }
+    for (double v : p.percent_by_fold) row.emplace_back(v);
+    for (Cell c : std::vector<Cell>{p.max_gap_s, p.mean_gap_s, p.p95_gap_s, p.gap_count, p.mean_response_time_s,
+                                    p.mean_in_view, static_cast<long>(p.max_in_view)})
+      row.push_back(c);
+    for (double v : p.radius_deg_by_fold) row.emplace_back(v);
+    t.add_row(std::move(row));
+  }
+  return t;
+}
+
+Table in_view_distribution_table(const CoverageResult& r) {
+  Table t;
+  t.title = "Satellites in view (share of time and area)";
+  t.columns = {{"in_view", "in view", "", 0}, {"or_more", "or more", "", 0}, {"percent", "share", "%", 4}};
+  size_t last = 0;
+  for (size_t n = 0; n < r.in_view_fraction.size(); ++n)
+    if (r.in_view_fraction[n] > 0.0) last = n;
+  for (size_t n = 0; n <= last && n < r.in_view_fraction.size(); ++n)
+    t.add_row({static_cast<long>(n), std::string(n + 1 == r.in_view_fraction.size() ? "yes" : "no"),
+               100.0 * r.in_view_fraction[n]});
+  return t;
+}
+
+Table gap_distribution_table(const CoverageResult& r) {
+  Table t;
+  t.title = "Revisit gap distribution (area-weighted quantiles)";
+  t.columns = {{"quantile_percent", "quantile", "%", 0}, {"gap_s", "gap", "s", 1}};
+  for (size_t q = 0; q < r.gap_quantiles_s.size(); ++q) t.add_row({static_cast<long>(q), r.gap_quantiles_s[q]});
+  return t;
+}
+
+}  // namespace skein

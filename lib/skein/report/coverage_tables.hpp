@@ -1,0 +1,21 @@
+#pragma once
+// Tables of coverage results, shared by `skein coverage` and the report folder.
+#include "skein/coverage/result.hpp"
+#include "skein/report/table.hpp"
+
+namespace skein {
+
+// One row: grid points and the area-weighted whole-grid figures.
+Table coverage_overview_table(const CoverageResult& r);
+// One row per fold k = 1..K: percent of time covered, worst instantaneous covered area, required radius.
+Table coverage_fold_table(const CoverageResult& r);
+// One row per latitude band holding points.
+Table coverage_band_table(const CoverageResult& r);
+// One row per grid point, with its cell bounds (for maps and GeoJSON cells).
+Table coverage_point_table(const CoverageResult& r);
+// The time- and area-weighted distribution of the number of satellites in view.
+Table in_view_distribution_table(const CoverageResult& r);
+// Quantiles 0..100 % of the pooled, area-weighted revisit-gap distribution (a CDF).
+Table gap_distribution_table(const CoverageResult& r);
+
+}  // namespace skein

@@ -1,0 +1,171 @@
+#include "skein/report/report.hpp"
+
+#include <fmt/format.h>
+
+#include "skein/design/constellation.hpp"
+#include "skein/export/geojson.hpp"
+#include "skein/export/oem.hpp"
+#include "skein/orbit/drift_summary.hpp"
+#include "skein/report/budget_tables.hpp"
+#include "skein/report/coverage_tables.hpp"
+#include "skein/report/layout_tables.hpp"
+#include "skein/report/report_plots.hpp"
+
+namespace skein {
+namespace {
+
+struct NamedTable {
+  std::string file;  // stem under tables/
+  Table table;
+};
+
+struct Figure {
+  std::string file;  // stem under plots/
+  std::string caption;
+  std::string svg;
+};
+
+std::string html_page(const Design& d, const std::vector<NamedTable>& tables, const std::vector<Figure>& figures,
+                      const std::vector<std::string>& warnings) {
+  std::string h = "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n";
+  h += "<title>" + html_escape(d.name) + " - skein report</title>\n";
+  h += "<style>\nbody{font-family:'DejaVu Sans',Arial,sans-serif;margin:2em auto;max-width:1100px;color:#1b2a49}\n"
+       "table{border-collapse:collapse;margin:1em 0;font-size:13px}caption{text-align:left;font-weight:bold;padding:4px 0}\n"
+       "th,td{border:1px solid #c8ccd4;padding:3px 8px}th{background:#eef1f5}td.num{text-align:right}\n"
+       ".caution{border-left:4px solid #d1495b;background:#fbeff1;padding:8px 12px}\n"
+       "figure{margin:1.5em 0}figcaption{font-size:13px;color:#444}\n</style>\n</head>\n<body>\n";
+  h += "<h1>" + html_escape(d.name) + "</h1>\n";
+  h += fmt::format("<p>Design file {}, epoch {}, Earth model {}.</p>\n", html_escape(d.file),
+                   format_utc_iso8601(d.epoch, 0), d.earth.name);
+  h += "<p class=\"caution\">" + html_escape(std::string(report_caution)) + "</p>\n";
+  for (const auto& w : warnings) h += "<p class=\"caution\">Warning: " + html_escape(w) + "</p>\n";
+  h += "<h2>Tables</h2>\n";
+  for (const auto& t : tables) {
+    if (t.file == "satellites" || t.file == "coverage_points" || t.file == "gap_distribution") continue;  // long: CSV only
+    h += render_html(t.table);
+  }
+  h += "<p>Every table, including the per-satellite and per-point ones, is in <code>tables/</code> as CSV and JSON.</p>\n";
+  h += "<h2>Figures</h2>\n";
+  for (const auto& f : figures)
+    h += "<figure>\n" + f.svg + "<figcaption>" + html_escape(f.caption) + " (plots/" + f.file + ".svg)</figcaption>\n</figure>\n";
+  h += "<h2>Exports</h2>\n<p><code>exports/coverage_cells.geojson</code>: per-cell coverage metrics (RFC 7946). "
+       "<code>exports/oem/</code>: one CCSDS Orbit Ephemeris Message (KVN) per satellite.</p>\n";
+  return h + "</body>\n</html>\n";
+}
+
+std::string summary_markdown(const Design& d, const std::vector<NamedTable>& tables, const std::vector<std::string>& warnings) {
+  std::string m = "# " + d.name + "\n\n";
+  m += fmt::format("Design file `{}`, epoch {}, Earth model {} ({}).\n\n", d.file, format_utc_iso8601(d.epoch, 0),
+                   d.earth.name, d.earth.source);
+  m += "> **Caution.** " + std::string(report_caution) + "\n\n";
+  for (const auto& w : warnings) m += "> **Warning.** " + w + "\n\n";
+  const char* sections[][2] = {{"shells", "Layout"},
+                               {"drift", "J2 drift"},
+                               {"differential_drift", ""},
+                               {"coverage_overview", "Coverage"},
+                               {"coverage_folds", ""},
+                               {"coverage_bands", ""},
+                               {"budget_shells", "Lifetime and delta-v budget"},
+                               {"budget_lines", ""},
+                               {"lifetime_by_level", ""}};
+  for (const auto& s : sections)
+    for (const auto& t : tables)
+      if (t.file == s[0]) {
+        if (*s[1]) m += std::string("## ") + s[1] + "\n\n";
+        m += render_markdown(t.table) + "\n";
+      }
+  m += "Figures are in `plots/`, all tables as CSV and JSON in `tables/`, exports in `exports/`; open `index.html` "
+       "in a browser for everything on one page.\n";
+  return m;
+}
+
+}  // namespace
+
+Report build_report(const Design& design, const ReportOptions& options) {
+  Report rep;
+  rep.coverage = evaluate_coverage(design, options.coverage);
+  rep.budget = compute_budget(design, options.budget);
+  const auto sats = expand_constellation(design);
+  const DriftResult drift = compute_drift(design);
+
+  std::vector<NamedTable> tables = {
+      {"shells", shell_table(design)},
+      {"satellites", satellite_table(design, sats)},
+      {"drift", drift_table(drift)},
+      {"differential_drift", differential_drift_table(drift)},
+      {"coverage_overview", coverage_overview_table(rep.coverage)},
+      {"coverage_folds", coverage_fold_table(rep.coverage)},
+      {"coverage_bands", coverage_band_table(rep.coverage)},
+      {"coverage_points", coverage_point_table(rep.coverage)},
+      {"in_view_distribution", in_view_distribution_table(rep.coverage)},
+      {"gap_distribution", gap_distribution_table(rep.coverage)},
+      {"budget_shells", budget_shell_table(rep.budget)},
+      {"budget_lines", budget_lines_table(rep.budget)},
+      {"lifetime_by_level", lifetime_by_level_table(rep.budget)},
+  };
+  for (const auto& sh : rep.budget.shells)
+    for (const auto& dec : sh.decay)
+      tables.push_back({fmt::format("decay_{}_{}", sh.name, to_string(dec.level)),
+                        decay_curve_table(sh, dec, design.earth.radius_km)});
+
+  std::vector<Figure> figures;
+  const bool has_cells = !rep.coverage.points.empty() && rep.coverage.points.front().point.cell.has_value();
+  if (has_cells) {
+    figures.push_back({"coverage_map", "Percent of time covered by at least one satellite, per grid cell", coverage_map_svg(rep.coverage)});
+    figures.push_back({"max_gap_map", "Longest revisit gap per grid cell", max_gap_map_svg(rep.coverage)});
+  }
+  if (!rep.coverage.bands.empty())
+    figures.push_back({"coverage_by_latitude", "Percent of time covered against latitude, per fold", coverage_by_latitude_svg(rep.coverage)});
+  figures.push_back({"in_view_histogram", "Distribution of the number of satellites in view", in_view_histogram_svg(rep.coverage)});
+  if (!rep.coverage.gap_quantiles_s.empty())
+    figures.push_back({"gap_cdf", "Cumulative distribution of revisit gaps", gap_cdf_svg(rep.coverage)});
+  figures.push_back({"dv_budget", "Delta-v per satellite by budget line", dv_budget_svg(rep.budget)});
+  figures.push_back({"decay_curves", "Natural decay of mean altitude under each solar level", decay_curves_svg(rep.budget, design.earth.radius_km)});
+  figures.push_back({"ground_tracks", "Ground tracks of one plane over one day", ground_track_svg(design)});
+
+  std::vector<std::string> warnings = rep.budget.warnings;
+
+  rep.files.push_back({"summary.md", summary_markdown(design, tables, warnings)});
+  rep.files.push_back({"index.html", html_page(design, tables, figures, warnings)});
+  for (const auto& t : tables) {
+    rep.files.push_back({"tables/" + t.file + ".csv", render_csv(t.table)});
+    nlohmann::ordered_json j;
+    j["title"] = t.table.title;
+    j["rows"] = rows_to_json(t.table);
+    rep.files.push_back({"tables/" + t.file + ".json", j.dump(2) + "\n"});
+  }
+  for (const auto& f : figures) rep.files.push_back({"plots/" + f.file + ".svg", f.svg});
+
+  if (has_cells) {
+    std::vector<GeoCell> cells;
+    for (const auto& p : rep.coverage.points) {
+      nlohmann::ordered_json props;
+      props["lat_deg"] = p.point.lat_deg;
+      props["lon_deg"] = p.point.lon_deg;
+      props["area_weight"] = p.point.area_weight;
+      props["percent_covered_by_fold"] = p.percent_by_fold;
+      props["max_gap_s"] = p.max_gap_s;
+      props["mean_gap_s"] = p.mean_gap_s;
+      props["p95_gap_s"] = p.p95_gap_s;
+      props["gap_count"] = p.gap_count;
+      props["mean_response_time_s"] = p.mean_response_time_s;
+      props["mean_in_view"] = p.mean_in_view;
+      props["max_in_view"] = p.max_in_view;
+      cells.push_back({p.point.cell->lon_min_deg, p.point.cell->lon_max_deg, p.point.cell->lat_min_deg,
+                       p.point.cell->lat_max_deg, std::move(props)});
+    }
+    rep.files.push_back({"exports/coverage_cells.geojson", render_geojson(cells)});
+  }
+  for (const auto& sat : sats) {
+    OemMessage m;
+    m.creation_date = options.creation_date;
+    m.originator = options.originator;
+    m.comments = {"Design: " + design.name, std::string(report_caution)};
+    m.segments.push_back(sample_oem_segment(design.earth, make_secular_orbit(design.earth, sat.elements), design.epoch,
+                                            options.ephemeris_span_s, options.ephemeris_step_s, sat.id, sat.id));
+    rep.files.push_back({"exports/oem/" + sat.id + ".oem", render_oem(m)});
+  }
+  return rep;
+}
+
+}  // namespace skein

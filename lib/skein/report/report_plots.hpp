@@ -1,0 +1,28 @@
+#pragma once
+// The report's figures, each built from result structs into SVG text.
+#include <string>
+
+#include "skein/budget/budget.hpp"
+#include "skein/coverage/result.hpp"
+#include "skein/design/design.hpp"
+
+namespace skein {
+
+// Percent of time covered (fold 1) per grid cell, on a longitude/latitude map. Requires cell bounds.
+std::string coverage_map_svg(const CoverageResult& r);
+// Longest revisit gap per grid cell, minutes.
+std::string max_gap_map_svg(const CoverageResult& r);
+// Percent covered against latitude (band aggregates), one series per fold.
+std::string coverage_by_latitude_svg(const CoverageResult& r);
+// Share of time and area with n satellites in view.
+std::string in_view_histogram_svg(const CoverageResult& r);
+// Cumulative distribution of revisit gap durations, minutes.
+std::string gap_cdf_svg(const CoverageResult& r);
+// Delta-v per satellite, by budget line, one group per shell.
+std::string dv_budget_svg(const BudgetResult& b);
+// Mean altitude against time under each solar level, one chart for all shells (series "SHELL, LEVEL").
+std::string decay_curves_svg(const BudgetResult& b, double earth_radius_km);
+// Sub-satellite tracks of the first plane of the first shell over one day.
+std::string ground_track_svg(const Design& d);
+
+}  // namespace skein
