@@ -45,6 +45,7 @@ int main(int argc, char** argv) {
   skein::cli::add_coverage_command(app);
   skein::cli::add_budget_command(app);
   skein::cli::add_report_command(app);
+  skein::cli::add_sweep_command(app);
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {

@@ -41,7 +41,9 @@ std::string html_page(const Design& d, const std::vector<NamedTable>& tables, co
   for (const auto& w : warnings) h += "<p class=\"caution\">Warning: " + html_escape(w) + "</p>\n";
   h += "<h2>Tables</h2>\n";
   for (const auto& t : tables) {
-    if (t.file == "satellites" || t.file == "coverage_points" || t.file == "gap_distribution") continue;  // long: CSV only
+    const bool long_table = t.file == "satellites" || t.file == "coverage_points" || t.file == "gap_distribution" ||
+                            t.file.starts_with("decay_");
+    if (long_table) continue;  // in tables/ as CSV and JSON only
     h += render_html(t.table);
   }
   h += "<p>Every table, including the per-satellite and per-point ones, is in <code>tables/</code> as CSV and JSON.</p>\n";
@@ -120,7 +122,9 @@ Report build_report(const Design& design, const ReportOptions& options) {
   if (!rep.coverage.gap_quantiles_s.empty())
     figures.push_back({"gap_cdf", "Cumulative distribution of revisit gaps", gap_cdf_svg(rep.coverage)});
   figures.push_back({"dv_budget", "Delta-v per satellite by budget line", dv_budget_svg(rep.budget)});
-  figures.push_back({"decay_curves", "Natural decay of mean altitude under each solar level", decay_curves_svg(rep.budget, design.earth.radius_km)});
+  for (const auto& sh : rep.budget.shells)
+    figures.push_back({"decay_" + sh.name, "Natural decay of the mean altitude of shell " + sh.name + " under each solar level",
+                       decay_curves_svg(sh, design.earth.radius_km)});
   figures.push_back({"ground_tracks", "Ground tracks of one plane over one day", ground_track_svg(design)});
 
   std::vector<std::string> warnings = rep.budget.warnings;

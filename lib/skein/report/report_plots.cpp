@@ -96,18 +96,18 @@ std::string dv_budget_svg(const BudgetResult& b) {
   return bar_chart_svg({"Delta-v budget per satellite over the mission life", "shell", "delta-v (m/s)"}, labels, groups);
 }
 
-std::string decay_curves_svg(const BudgetResult& b, double earth_radius_km) {
+std::string decay_curves_svg(const ShellBudget& s, double earth_radius_km) {
   std::vector<Series> series;
-  for (const auto& s : b.shells)
-    for (const auto& d : s.decay) {
-      Series se{fmt::format("{}, {}", s.name, to_string(d.level)), {}, {}, SeriesStyle::line};
-      for (const auto& p : d.curve) {
-        se.x.push_back(p.t_days / days_per_julian_year);
-        se.y.push_back(p.a_km - earth_radius_km);
-      }
-      series.push_back(std::move(se));
+  for (const auto& d : s.decay) {
+    Series se{fmt::format("{} solar activity{}", to_string(d.level), d.lower_bound ? " (still in orbit)" : ""), {}, {},
+              SeriesStyle::line};
+    for (const auto& p : d.curve) {
+      se.x.push_back(p.t_days / days_per_julian_year);
+      se.y.push_back(p.a_km - earth_radius_km);
     }
-  PlotAxes a{"Natural decay of the mean altitude", "time after epoch (years)", "mean altitude (km)"};
+    series.push_back(std::move(se));
+  }
+  PlotAxes a{fmt::format("Natural decay of shell {}", s.name), "time after epoch (years)", "mean altitude (km)"};
   a.x_min = 0.0;
   return line_plot_svg(a, series);
 }

@@ -20,8 +20,8 @@ std::string in_view_histogram_svg(const CoverageResult& r);
 std::string gap_cdf_svg(const CoverageResult& r);
 // Delta-v per satellite, by budget line, one group per shell.
 std::string dv_budget_svg(const BudgetResult& b);
-// Mean altitude against time under each solar level, one chart for all shells (series "SHELL, LEVEL").
-std::string decay_curves_svg(const BudgetResult& b, double earth_radius_km);
+// Mean altitude of one shell against time under each solar level (one series per level).
+std::string decay_curves_svg(const ShellBudget& shell, double earth_radius_km);
 // Sub-satellite tracks of the first plane of the first shell over one day.
 std::string ground_track_svg(const Design& d);
 

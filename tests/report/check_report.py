@@ -1,0 +1,176 @@
+"""Checks of a report folder written by `skein report`, against outside rules and the other commands.
+
+usage: check_report.py SKEIN DESIGN WORKDIR
+
+1. Two runs with the same --creation-date give byte-identical folders (issue: reproducible output).
+2. exports/coverage_cells.geojson follows RFC 7946: FeatureCollection of Polygon features whose exterior
+   rings are closed (sec. 3.1.6), counterclockwise (right-hand rule, sec. 3.1.6), [longitude, latitude] within
+   range (sec. 4), and whose cells tile the grid (area weights sum to 1).
+3. Each exports/oem/*.oem is CCSDS 502.0-B-2 KVN: version line first, required header and metadata keywords,
+   data lines of an epoch and six numbers, times increasing and inside START_TIME..STOP_TIME, radius inside
+   the orbit's perigee..apogee radius from `skein check --format json`.
+4. Every table in summary.md equals, cell by cell, the report's tables/*.json at the column's decimals, and
+   those JSON rows equal the `--format json` output of `skein drift`, `skein coverage` and `skein budget`.
+"""
+import filecmp
+import json
+import math
+import os
+import re
+import subprocess
+import sys
+
+skein, design, work = sys.argv[1], sys.argv[2], sys.argv[3]
+failures = []
+
+
+def fail(msg):
+    failures.append(msg)
+    print("FAIL " + msg)
+
+
+def run(*args):
+    r = subprocess.run([skein, *args], capture_output=True, text=True)
+    if r.returncode != 0:
+        raise SystemExit(f"skein {' '.join(args)} exited {r.returncode}: {r.stderr}")
+    return r.stdout
+
+
+a, b = os.path.join(work, "a"), os.path.join(work, "b")
+for out in (a, b):
+    run("report", design, "--out", out, "--creation-date", "2027-01-01T00:00:00Z")
+
+
+def same_tree(d1, d2):
+    cmp = filecmp.dircmp(d1, d2)
+    if cmp.left_only or cmp.right_only or cmp.diff_files or cmp.funny_files:
+        return False
+    return all(same_tree(os.path.join(d1, s), os.path.join(d2, s)) for s in cmp.common_dirs)
+
+
+# filecmp compares contents with shallow=False only for diff_files via cmpfiles; be explicit.
+def all_files(d):
+    for root, _, files in os.walk(d):
+        for f in files:
+            yield os.path.relpath(os.path.join(root, f), d)
+
+
+fa, fb = sorted(all_files(a)), sorted(all_files(b))
+if fa != fb:
+    fail("the two runs wrote different file lists")
+else:
+    for rel in fa:
+        if not filecmp.cmp(os.path.join(a, rel), os.path.join(b, rel), shallow=False):
+            fail(f"{rel} differs between two identical runs")
+print(f"report: {len(fa)} files, reproducible")
+
+# 2. GeoJSON
+with open(os.path.join(a, "exports", "coverage_cells.geojson")) as f:
+    gj = json.load(f)
+if gj.get("type") != "FeatureCollection":
+    fail("GeoJSON is not a FeatureCollection")
+weight = 0.0
+for k, feat in enumerate(gj["features"]):
+    ring = feat["geometry"]["coordinates"][0]
+    if feat["geometry"]["type"] != "Polygon" or len(ring) < 4 or ring[0] != ring[-1]:
+        fail(f"feature {k}: not a closed Polygon ring")
+        break
+    area2 = sum(ring[j][0] * ring[j + 1][1] - ring[j + 1][0] * ring[j][1] for j in range(len(ring) - 1))
+    if area2 <= 0:
+        fail(f"feature {k}: ring is clockwise")
+        break
+    if any(not (-180 <= p[0] <= 180 and -90 <= p[1] <= 90) for p in ring):
+        fail(f"feature {k}: position out of range or not [lon, lat]")
+        break
+    weight += feat["properties"]["area_weight"]
+if not math.isclose(weight, 1.0, rel_tol=1e-9):
+    fail(f"GeoJSON area weights sum to {weight}, expected 1")
+print(f"geojson: {len(gj['features'])} cells checked")
+
+# 3. OEM
+check = json.loads(run("check", design, "--format", "json"))
+sat_a = {s["id"]: (s["a_km"], s["e"]) for s in check["satellites"]}
+oem_dir = os.path.join(a, "exports", "oem")
+oems = sorted(os.listdir(oem_dir))
+if sorted(x[:-4] for x in oems) != sorted(sat_a):
+    fail("OEM files do not match the satellites of `skein check`")
+epoch_re = re.compile(r"^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d(\.\d+)?$")
+for name in oems:
+    lines = [l.strip() for l in open(os.path.join(oem_dir, name)) if l.strip()]
+    if lines[0] != "CCSDS_OEM_VERS = 2.0":
+        fail(f"{name}: first line {lines[0]!r}")
+    kv = dict(l.split(" = ", 1) for l in lines if " = " in l)
+    for key in ("CREATION_DATE", "ORIGINATOR", "OBJECT_NAME", "OBJECT_ID", "CENTER_NAME", "REF_FRAME",
+                "TIME_SYSTEM", "START_TIME", "STOP_TIME"):
+        if key not in kv:
+            fail(f"{name}: missing {key}")
+    data = lines[lines.index("META_STOP") + 1:]
+    a_km, e = sat_a[name[:-4]]
+    times = []
+    for l in data:
+        parts = l.split()
+        if len(parts) != 7 or not epoch_re.match(parts[0]):
+            fail(f"{name}: bad data line {l!r}")
+            break
+        times.append(parts[0])
+        r = math.sqrt(sum(float(x) ** 2 for x in parts[1:4]))
+        if not (a_km * (1 - e) - 1e-3 <= r <= a_km * (1 + e) + 1e-3):
+            fail(f"{name}: radius {r} outside perigee..apogee")
+            break
+    if times != sorted(times) or times[0] != kv["START_TIME"] or times[-1] != kv["STOP_TIME"]:
+        fail(f"{name}: times not increasing or not matching START_TIME/STOP_TIME")
+print(f"oem: {len(oems)} files checked")
+
+# 4. summary.md against tables/*.json against the commands' JSON
+summary = open(os.path.join(a, "summary.md")).read()
+tables = {}
+for stem in os.listdir(os.path.join(a, "tables")):
+    if stem.endswith(".json"):
+        t = json.load(open(os.path.join(a, "tables", stem)))
+        tables[t["title"]] = (stem[:-5], t["rows"])
+blocks = re.findall(r"\*\*(.+?)\*\*\n\n((?:\|.*\|\n)+)", summary)
+if len(blocks) < 6:
+    fail(f"summary.md holds only {len(blocks)} tables")
+for title, body in blocks:
+    if title not in tables:
+        fail(f"summary table {title!r} has no tables/*.json twin")
+        continue
+    rows = [[c.strip() for c in line.strip().strip("|").split("|")] for line in body.strip().split("\n")[2:]]
+    stem, jrows = tables[title]
+    if len(rows) != len(jrows):
+        fail(f"{stem}: {len(rows)} rows in summary.md, {len(jrows)} in JSON")
+        continue
+    for row, jrow in zip(rows, jrows):
+        for cell, (key, value) in zip(row, jrow.items()):
+            if value is None:
+                ok = cell == "-"
+            elif isinstance(value, (int, float)) and not isinstance(value, bool):
+                decimals = len(cell.split(".")[1]) if "." in cell else 0
+                ok = math.isclose(float(cell), value, abs_tol=0.51 * 10 ** -decimals)
+            else:
+                ok = cell == str(value)
+            if not ok:
+                fail(f"{stem}.{key}: summary.md shows {cell!r}, JSON holds {value!r}")
+print(f"summary.md: {len(blocks)} tables match tables/*.json")
+
+
+def compare_rows(stem, command_rows, key_name="name"):
+    _, jrows = next(v for v in tables.values() if v[0] == stem)
+    for jrow, crow in zip(jrows, command_rows):
+        for key, value in jrow.items():
+            if key in crow and isinstance(value, (int, float)) and not isinstance(value, bool):
+                if not math.isclose(value, crow[key], rel_tol=1e-12, abs_tol=1e-12):
+                    fail(f"{stem}.{key}: report {value!r} != command {crow[key]!r}")
+    if len(jrows) != len(command_rows):
+        fail(f"{stem}: {len(jrows)} rows, command gave {len(command_rows)}")
+
+
+drift = json.loads(run("drift", design, "--format", "json"))
+compare_rows("drift", drift["shells"])
+coverage = json.loads(run("coverage", design, "--format", "json"))
+compare_rows("coverage_overview", [coverage])
+budget = json.loads(run("budget", design, "--format", "json"))
+compare_rows("budget_shells", budget["shells"])
+print("report tables agree with drift, coverage and budget JSON")
+print(f"report checks: {0 if failures else 1} passed, {1 if failures else 0} failed")
+sys.exit(1 if failures else 0)
