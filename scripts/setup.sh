@@ -5,7 +5,10 @@ set -euo pipefail
 cd "$(dirname "$0")/.."
 
 packages=(build-essential cmake pkg-config libeigen3-dev libyaml-cpp-dev libtbb-dev libbenchmark-dev doctest-dev
-          libcli11-dev libfmt-dev nlohmann-json3-dev liberfa-dev python3 python3-numpy)
+          libcli11-dev libfmt-dev nlohmann-json3-dev libopenmpi-dev openmpi-bin
+          liberfa-dev python3 python3-numpy chromium)
+# liberfa-dev and python3-numpy are reference oracles for the tests; chromium renders the report page in a
+# test; OpenMPI carries sweeps across machines.
 packages+=(${SKEIN_EXTRA_PACKAGES:-})
 missing=()
 for p in "${packages[@]}"; do

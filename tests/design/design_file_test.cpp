@@ -126,3 +126,15 @@ TEST_CASE("design: errors name the line, the key and what was expected") {
             .starts_with("t.yaml:13:18: shells[0].altitude_km: expected an altitude"));
   CHECK(error_of("name: [unclosed\n").starts_with("t.yaml:"));
 }
+
+TEST_CASE("design: Walker phasing of very large patterns does not overflow (fuzz regression)") {
+  // fuzz/regressions/walker_phasing_overflow.yaml: T = P = 100000, F = 99999 once overflowed int in P*F.
+  Shell s;
+  s.pattern = PatternKind::walker_delta;
+  s.satellites = 100000;
+  s.planes = 100000;
+  s.phasing = 99999;
+  const double u = walker_slot_arg_latitude_rad(s, 21476, 0) * deg_per_rad;
+  const double expected = std::fmod(21476.0 * 99999.0 * 360.0 / 100000.0, 360.0);
+  CHECK(u == doctest::Approx(expected).epsilon(1e-9));
+}

@@ -33,7 +33,7 @@ constexpr Node nodes[] = {
 };
 constexpr size_t node_count = std::size(nodes);
 
-// Exponential interpolation between two node values (Montenbruck & Gill eq. 3.105).
+// Exponential interpolation between two node values (Montenbruck & Gill sec. 3.5.2).
 double interpolate(double h, double h0, double h1, double v0, double v1) {
   const double scale = (h0 - h1) / std::log(v1 / v0);  // scale height, km (positive)
   return v0 * std::exp((h0 - h) / scale);

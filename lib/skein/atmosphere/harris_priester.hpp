@@ -21,11 +21,11 @@ HarrisPriesterBounds harris_priester_bounds(double altitude_km);
 
 // Density at altitude_km where psi is the angle between the position and the bulge apex:
 // rho = rho_min + (rho_max - rho_min) cos^n(psi/2), cos^n(psi/2) = ((1 + cos psi)/2)^(n/2).
-// Source: Montenbruck & Gill (2000) eqs. 3.107-3.110; n = 2 (low inclination) to 6 (polar).
+// Source: Montenbruck & Gill (2000) sec. 3.5.2; n = 2 (low inclination) to 6 (polar).
 double harris_priester_density_kg_m3(double altitude_km, double cos_psi, double exponent);
 
 // Unit vector of the bulge apex in the equatorial frame, from the Sun's right ascension and declination
-// (rad): right ascension + 30 deg, same declination (Montenbruck & Gill 2000 eq. 3.109).
+// (rad): right ascension + 30 deg, same declination (Montenbruck & Gill 2000 sec. 3.5.2).
 Eigen::Vector3d harris_priester_apex(double sun_ra_rad, double sun_dec_rad);
 
 // The cos^n(psi/2) weight averaged over a circular orbit (argument of latitude) and over a year of Sun

@@ -129,12 +129,13 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
   atm.kind = spec.atmosphere;
   if (atm.kind == AtmosphereKind::harris_priester) {
     const double n = spec.harris_priester_exponent.value_or(harris_priester_default_exponent(i_rad));
-    double w = 0.0;
-    for (double node : nodes) {
-      const double offset = node - mean_sun_right_ascension_rad(jd);
-      w += harris_priester_mean_weight(i_rad, shell.sun_synchronous, offset, n);
+    if (shell.sun_synchronous) {  // each plane keeps its own offset from the mean Sun: average the planes
+      double w = 0.0;
+      for (double node : nodes) w += harris_priester_mean_weight(i_rad, true, node - mean_sun_right_ascension_rad(jd), n);
+      atm.bulge_weight = w / static_cast<double>(nodes.size());
+    } else {  // every plane sweeps all Sun angles: one average serves them all
+      atm.bulge_weight = harris_priester_mean_weight(i_rad, false, 0.0, n);
     }
-    atm.bulge_weight = w / static_cast<double>(nodes.size());
     out.bulge_weight = atm.bulge_weight;
   }
   atm.solar = {level, phase0};
@@ -357,7 +358,15 @@ BudgetResult compute_budget(const Design& design, const BudgetOptions& options) 
   out.mission_life_years = spec.mission_life_years;
   out.atmosphere = spec.atmosphere;
   out.solar = options.solar.value_or(spec.solar);
-  out.solar_cycle_phase_at_epoch = spec.solar_cycle_phase.value_or(solar_cycle_phase_at(julian_date(design.epoch).value()));
+  const double jd_epoch = julian_date(design.epoch).value();
+  if (spec.solar_cycle_phase) {
+    out.solar_cycle_phase_at_epoch = *spec.solar_cycle_phase;
+  } else if (spec.solar_minimum_jd) {
+    const double cycles = (jd_epoch - *spec.solar_minimum_jd) / (solar_cycle_years * days_per_julian_year);
+    out.solar_cycle_phase_at_epoch = cycles - std::floor(cycles);
+  } else {
+    out.solar_cycle_phase_at_epoch = solar_cycle_phase_at(jd_epoch);
+  }
   out.reentry_altitude_km = spec.reentry_altitude_km;
   out.shells.resize(design.shells.size());
   tbb::parallel_for(size_t{0}, design.shells.size(), [&](size_t s) {

@@ -16,9 +16,9 @@ inline constexpr double ecliptic_obliquity_rad = 23.43928 * rad_per_deg;  // J20
 //   <R> = mu_s a^2 / (4 r_s^3) (1 - 3 (h . s)^2),   di/dt = -1/(n a^2 sin i) dR/dOmega
 //       = 3 n_s^2 / (2 n) (h . s) [cos Omega cos lambda + sin Omega sin lambda cos eps],
 // with h the orbit normal, s the Sun direction at ecliptic longitude lambda, Omega = lambda + (ltan_h - 12) 15 deg.
-// Derived here from Lagrange's planetary equation for di/dt (Vallado 2013 eq. 9-24) and the third-body
-// disturbing function (Vallado 2013 sec. 8.6.3); without obliquity it reduces to
-// di/dt = 3 n_s^2 / (4 n) sin i sin(2 (ltan - 12 h) 15 deg/h). The Moon's term is periodic for a
+// Derived here from Lagrange's planetary equation for di/dt (Vallado 2013 ch. 9) and the third-body
+// disturbing function (Vallado 2013 ch. 8). The year average has the closed form
+// di/dt = 3 n_s^2 / (4 n) sin i sin(2 (ltan - 12 h) 15 deg/h) cos^4(eps/2), checked in the tests. The Moon's term is periodic for a
 // sun-synchronous node and is left out.
 double solar_inclination_rate_rad_s(const EarthModel& earth, double a_km, double i_rad, double ltan_h);
 

@@ -3,6 +3,7 @@
 #include <fmt/format.h>
 
 #include "skein/design/yaml_reader.hpp"
+#include "skein/time/epoch.hpp"
 
 namespace skein {
 
@@ -36,8 +37,8 @@ BudgetSpec read_budget_spec(const yaml::MapReader& root) {
   if (!root.has("budget")) return spec;
   const yaml::MapReader m = root.map(
       "budget", {"mission_life_years", "atmosphere", "harris_priester_exponent", "solar_activity", "solar_cycle_phase",
-                 "reentry_altitude_km", "deadband_km", "injection_sigma", "node_control", "sso_inclination_control",
-                 "slot_keeping", "collision_avoidance", "disposal", "margin_percent"});
+                 "solar_minimum_date", "reentry_altitude_km", "deadband_km", "injection_sigma", "node_control",
+                 "sso_inclination_control", "slot_keeping", "collision_avoidance", "disposal", "margin_percent"});
   spec.present = true;
   spec.mission_life_years =
       m.optional_number("mission_life_years", 0.01, 100.0, "a mission life in years (0.01 to 100)").value_or(5.0);
@@ -51,6 +52,15 @@ BudgetSpec read_budget_spec(const yaml::MapReader& root) {
     spec.solar = *solar_level_from_string(m.choice("solar_activity", {"low", "mean", "high", "cycle"}));
   spec.solar_cycle_phase =
       m.optional_number("solar_cycle_phase", 0.0, 1.0, "a solar-cycle phase at the epoch (0 = minimum, 0.5 = maximum)");
+  if (m.has("solar_minimum_date")) {
+    if (spec.solar_cycle_phase) m.fail_key("solar_minimum_date", "give solar_cycle_phase or solar_minimum_date, not both");
+    const std::string text = m.string("solar_minimum_date", "a UTC date of a solar-cycle minimum");
+    const auto when = parse_utc_iso8601(text);
+    if (!when)
+      m.fail_key("solar_minimum_date",
+                 fmt::format("\"{}\" is not a UTC instant; expected ISO 8601 like 2019-12-15T00:00:00Z", text));
+    spec.solar_minimum_jd = julian_date(*when).value();
+  }
   spec.reentry_altitude_km =
       m.optional_number("reentry_altitude_km", 80.0, 200.0, "a re-entry altitude in km (80 to 200)").value_or(120.0);
   spec.deadband_km =

@@ -34,6 +34,7 @@ struct BudgetSpec {
   std::optional<double> harris_priester_exponent;               // harris_priester_exponent (2..6); default by inclination
   SolarLevel solar = SolarLevel::mean;           // solar_activity
   std::optional<double> solar_cycle_phase;       // solar_cycle_phase at the epoch, 0 = minimum; default from the epoch
+  std::optional<double> solar_minimum_jd;        // solar_minimum_date: a cycle minimum (UTC), instead of the phase
   double reentry_altitude_km = 120.0;            // reentry_altitude_km
   double deadband_km = 1.0;                      // deadband_km: drag make-up lets the altitude fall this far
   // injection (1-sigma) and node_control

@@ -51,13 +51,23 @@ struct PointGeo {
   double ux, uy, uz;  // geocentric unit vector
 };
 
+// Earth-fixed position (km) and geocentric unit vector of one satellite at one instant, packed together so a
+// pair test touches one cache line.
+struct SatPos {
+  double x, y, z, ux, uy, uz;
+};
+
 // Satellite positions (Earth-fixed) for a window of sample instants.
 struct PositionBuffer {
   long first = 0, count = 0;
   int sats = 0;
-  std::vector<double> x, y, z, ux, uy, uz;  // [local * sats + s]
+  std::vector<SatPos> pos;                   // [local * sats + s]
   std::vector<double> cull_rad;              // per-satellite cull radius at each instant
   std::vector<double> guaranteed_cos;        // per instant: every satellite within this cosine is a candidate
+  // Per instant, the satellites sorted by geocentric latitude (for the exact k-th-nearest search): index,
+  // sin and cos of the latitude.
+  std::vector<int> by_lat;
+  std::vector<double> by_lat_sin, by_lat_cos;
   size_t at(long step, int s) const { return static_cast<size_t>((step - first) * sats + s); }
 };
 
@@ -83,22 +93,38 @@ struct Geometry {
 // Visibility margin of satellite s from point p at a buffered instant: sin(elevation) - sin(mask), and, with a
 // payload cone, the smaller of that and cos(off-nadir) - cos(half-angle). Visible when >= 0.
 inline double margin(const PointGeo& p, const PositionBuffer& b, size_t i, const Geometry& g) {
-  const double dx = b.x[i] - p.rx, dy = b.y[i] - p.ry, dz = b.z[i] - p.rz;
+  const SatPos& q = b.pos[i];
+  const double dx = q.x - p.rx, dy = q.y - p.ry, dz = q.z - p.rz;
   const double len = std::sqrt(dx * dx + dy * dy + dz * dz);
   double m = (dx * p.nx + dy * p.ny + dz * p.nz) / len - g.sin_min;
-  if (g.cone) m = std::min(m, -(dx * b.ux[i] + dy * b.uy[i] + dz * b.uz[i]) / len - g.cos_cone);
+  if (g.cone) m = std::min(m, (dx * q.ux + dy * q.uy + dz * q.uz) / len - g.cos_cone);
   return m;
 }
 
 inline bool visible(const PointGeo& p, const PositionBuffer& b, size_t i, const Geometry& g) {
-  const double dx = b.x[i] - p.rx, dy = b.y[i] - p.ry, dz = b.z[i] - p.rz;
+  const SatPos& q = b.pos[i];
+  const double dx = q.x - p.rx, dy = q.y - p.ry, dz = q.z - p.rz;
   if (dx * p.nx + dy * p.ny + dz * p.nz < 0.0) return false;  // below the horizontal plane (mask >= 0)
   return margin(p, b, i, g) >= 0.0;
 }
 
+// Insert the cosine c into the descending top-K list (K >= 1); the list's values do not depend on the order
+// in which the cosines arrive.
+inline void insert_top(double* top, int K, double c) {
+  if (!(c > top[K - 1])) return;
+  int k = K - 1;
+  while (k > 0 && top[k - 1] < c) {
+    top[k] = top[k - 1];
+    --k;
+  }
+  top[k] = c;
+}
+
+inline double cos_to(const PointGeo& p, const SatPos& q) { return p.ux * q.ux + p.uy * q.uy + p.uz * q.uz; }
+
 // Time of the sign change of the margin of (p, s) inside (t_{j-1}, t_j). The margin is known exactly at the
 // sample instants; between them it is replaced by the interpolating polynomial through up to four instants
-// (j-2 .. j+1), whose root is found by the Illinois variant of regula falsi (Dowell & Jarratt, BIT 11 (1971) 168).
+// (j-2 .. j+1), whose root is found by the safeguarded Newton iteration below.
 double crossing_time(const PointGeo& p, const PositionBuffer& b, const Sampling& smp, long j, int s, const Geometry& g) {
   long lo = std::max<long>(0, j - 2), hi = std::min<long>(smp.n - 1, j + 1);
   lo = std::max(lo, b.first);
@@ -109,38 +135,42 @@ double crossing_time(const PointGeo& p, const PositionBuffer& b, const Sampling&
     t[m] = smp.time(k);
     f[m] = margin(p, b, b.at(k, s), g);
   }
+  // Newton divided differences, so the interpolant costs three multiplications per evaluation.
+  for (int level = 1; level < m; ++level)
+    for (int a = m - 1; a >= level; --a) f[a] = (f[a] - f[a - 1]) / (t[a] - t[a - level]);
   const auto poly = [&](double x) {
-    double sum = 0.0;
-    for (int a = 0; a < m; ++a) {
-      double l = 1.0;
-      for (int c = 0; c < m; ++c)
-        if (c != a) l *= (x - t[c]) / (t[a] - t[c]);
-      sum += f[a] * l;
-    }
-    return sum;
+    double v = f[m - 1];
+    for (int q = m - 2; q >= 0; --q) v = v * (x - t[q]) + f[q];
+    return v;
   };
   double a = smp.time(j - 1), bb = smp.time(j);
   double fa = poly(a), fb = poly(bb);
   if (fa == 0.0) return a;
   if ((fa < 0.0) == (fb < 0.0)) return 0.5 * (a + bb);  // not bracketed by rounding: take the midpoint
-  int side = 0;
-  for (int it = 0; it < 40 && bb - a > 1e-6; ++it) {
-    const double c = (a * fb - bb * fa) / (fb - fa);
-    const double fc = poly(c);
-    if (fc == 0.0) return c;
-    if ((fc < 0.0) == (fb < 0.0)) {
-      bb = c;
-      fb = fc;
-      if (side == -1) fa *= 0.5;
-      side = -1;
-    } else {
-      a = c;
-      fa = fc;
-      if (side == 1) fb *= 0.5;
-      side = 1;
+  // Safeguarded Newton iteration on the interpolant (value and slope by Horner's rule), started at the secant
+  // root of the bracket. The bracket is kept up to date; a step leaving it is replaced by bisection. Stops when
+  // the step is below 1e-6 s, far under the interpolation residual (about 0.01 s at a 60 s step).
+  double x = (a * fb - bb * fa) / (fb - fa);
+  for (int it = 0; it < 12; ++it) {
+    double v = f[m - 1], d = 0.0;
+    for (int q = m - 2; q >= 0; --q) {
+      d = d * (x - t[q]) + v;
+      v = v * (x - t[q]) + f[q];
     }
+    if (v == 0.0) return x;
+    if ((v < 0.0) == (fb < 0.0)) {
+      bb = x;
+      fb = v;
+    } else {
+      a = x;
+      fa = v;
+    }
+    double xn = d != 0.0 ? x - v / d : 0.5 * (a + bb);
+    if (!(xn > a && xn < bb)) xn = 0.5 * (a + bb);
+    if (std::abs(xn - x) < 1e-6) return xn;
+    x = xn;
   }
-  return 0.5 * (a + bb);
+  return x;
 }
 
 std::vector<Row> build_rows(const std::vector<PointGeo>& geo) {
@@ -189,8 +219,8 @@ void build_candidates(const PositionBuffer& b, long step, const std::vector<Row>
   };
   for (int s = 0; s < b.sats; ++s) {
     const size_t i = b.at(step, s);
-    const double psi_s = std::asin(std::clamp(b.uz[i], -1.0, 1.0));
-    const double lon_s = std::atan2(b.uy[i], b.ux[i]);
+    const double psi_s = std::asin(std::clamp(b.pos[i].uz, -1.0, 1.0));
+    const double lon_s = std::atan2(b.pos[i].uy, b.pos[i].ux);
     const double lam = b.cull_rad[i];
     const double cos_lam = std::cos(lam), sin_s = std::sin(psi_s), cos_s = std::cos(psi_s);
     const auto r0 = std::lower_bound(row_psi.begin(), row_psi.end(), psi_s - lam) - row_psi.begin();
@@ -493,7 +523,13 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
     const long last = std::min(smp.n - 1, c1);
     buf.count = last - buf.first + 1;
     const size_t cells = static_cast<size_t>(buf.count) * static_cast<size_t>(T);
-    for (auto* v : {&buf.x, &buf.y, &buf.z, &buf.ux, &buf.uy, &buf.uz, &buf.cull_rad}) v->resize(cells);
+    buf.pos.resize(cells);
+    buf.cull_rad.resize(cells);
+    if (!exhaustive) {
+      buf.by_lat.resize(cells);
+      buf.by_lat_sin.resize(cells);
+      buf.by_lat_cos.resize(cells);
+    }
     buf.guaranteed_cos.resize(static_cast<size_t>(buf.count));
     tbb::parallel_for(tbb::blocked_range<long>(0, buf.count), [&](const tbb::blocked_range<long>& r) {
       for (long l = r.begin(); l < r.end(); ++l) {
@@ -505,16 +541,25 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
           const Eigen::Vector3d r_ef = inertial_to_earth_fixed(state_at(earth, orbits[static_cast<size_t>(s)], t).r_km, theta);
           const size_t i = buf.at(step, s);
           const double len = r_ef.norm();
-          buf.x[i] = r_ef.x();
-          buf.y[i] = r_ef.y();
-          buf.z[i] = r_ef.z();
-          buf.ux[i] = r_ef.x() / len;
-          buf.uy[i] = r_ef.y() / len;
-          buf.uz[i] = r_ef.z() / len;
+          buf.pos[i] = {r_ef.x(), r_ef.y(), r_ef.z(), r_ef.x() / len, r_ef.y() / len, r_ef.z() / len};
           buf.cull_rad[i] = std::max(visibility_cull_rad(len, min_ground_radius, st), radius_guess);
           guaranteed = std::min(guaranteed, buf.cull_rad[i]);
         }
         buf.guaranteed_cos[static_cast<size_t>(l)] = std::cos(std::max(0.0, guaranteed - 1e-7));
+        if (!exhaustive) {
+          const size_t base = buf.at(step, 0);
+          int* ord = &buf.by_lat[base];
+          std::iota(ord, ord + T, 0);
+          std::sort(ord, ord + T, [&](int a, int b) {
+            const double za = buf.pos[base + static_cast<size_t>(a)].uz, zb = buf.pos[base + static_cast<size_t>(b)].uz;
+            return za != zb ? za < zb : a < b;
+          });
+          for (int k = 0; k < T; ++k) {
+            const double z = std::clamp(buf.pos[base + static_cast<size_t>(ord[k])].uz, -1.0, 1.0);
+            buf.by_lat_sin[base + static_cast<size_t>(k)] = z;
+            buf.by_lat_cos[base + static_cast<size_t>(k)] = std::sqrt(1.0 - z * z);
+          }
+        }
       }
     });
     if (!exhaustive) {
@@ -551,40 +596,40 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
             for (long step = c0; step < c1; ++step) {
               fresh.clear();
               std::fill(top.begin(), top.end(), -2.0);
+              double* tp = top.data();
+              const SatPos* sp = &buf.pos[buf.at(step, 0)];
               const auto consider = [&](int s) {
-                const size_t i = buf.at(step, s);
                 ++acc.pair_tests;
-                if (visible(pg, buf, i, gm)) fresh.push_back(s);
-                const double c = pg.ux * buf.ux[i] + pg.uy * buf.uy[i] + pg.uz * buf.uz[i];
-                if (c > top[static_cast<size_t>(K - 1)]) {
-                  int k = K - 1;
-                  while (k > 0 && top[static_cast<size_t>(k - 1)] < c) {
-                    top[static_cast<size_t>(k)] = top[static_cast<size_t>(k - 1)];
-                    --k;
-                  }
-                  top[static_cast<size_t>(k)] = c;
-                }
+                if (visible(pg, buf, buf.at(step, s), gm)) fresh.push_back(s);
+                insert_top(tp, K, cos_to(pg, sp[s]));
               };
               if (exhaustive) {
                 for (int s = 0; s < T; ++s) consider(s);
               } else {
                 const StepCandidates& sc = cands[static_cast<size_t>(step - c0)];
                 for (std::uint32_t k = sc.offset[p]; k < sc.offset[p + 1]; ++k) consider(sc.sats[k]);
-                if (top[static_cast<size_t>(K - 1)] < buf.guaranteed_cos[static_cast<size_t>(step - buf.first)]) {
-                  // The k-th nearest satellite lies beyond the cull radius: find it among all satellites.
+                if (tp[K - 1] < buf.guaranteed_cos[static_cast<size_t>(step - buf.first)]) {
+                  // The k-th nearest satellite lies beyond the cull radius: find it, exactly, among all satellites.
+                  // The central angle to a satellite is at least the difference of the geocentric latitudes, so its
+                  // cosine is at most cos psi_s cos psi_p + sin psi_s sin psi_p (spherical law of cosines). The
+                  // satellites are sorted by latitude, so the scan runs outward from the point's latitude and
+                  // stops on each side once that bound is below the k-th best cosine found (less 1e-12 for
+                  // rounding). The top-K values do not depend on the scan order, so this equals the full scan.
                   ++acc.fallbacks;
                   std::fill(top.begin(), top.end(), -2.0);
-                  for (int s = 0; s < T; ++s) {
-                    const size_t i = buf.at(step, s);
-                    const double c = pg.ux * buf.ux[i] + pg.uy * buf.uy[i] + pg.uz * buf.uz[i];
-                    if (c > top[static_cast<size_t>(K - 1)]) {
-                      int k = K - 1;
-                      while (k > 0 && top[static_cast<size_t>(k - 1)] < c) {
-                        top[static_cast<size_t>(k)] = top[static_cast<size_t>(k - 1)];
-                        --k;
-                      }
-                      top[static_cast<size_t>(k)] = c;
-                    }
+                  const size_t base = buf.at(step, 0);
+                  const int* ord = &buf.by_lat[base];
+                  const double* zs = &buf.by_lat_sin[base];
+                  const double* cs = &buf.by_lat_cos[base];
+                  const double zp = std::clamp(pg.uz, -1.0, 1.0), cp = std::sqrt(1.0 - zp * zp);
+                  const int mid = static_cast<int>(std::lower_bound(zs, zs + T, zp) - zs);
+                  for (int k = mid; k < T; ++k) {
+                    if (cs[k] * cp + zs[k] * zp < tp[K - 1] - 1e-12) break;
+                    insert_top(tp, K, cos_to(pg, sp[ord[k]]));
+                  }
+                  for (int k = mid - 1; k >= 0; --k) {
+                    if (cs[k] * cp + zs[k] * zp < tp[K - 1] - 1e-12) break;
+                    insert_top(tp, K, cos_to(pg, sp[ord[k]]));
                   }
                 }
               }

@@ -51,13 +51,6 @@ std::optional<std::string> polygon_problem(const std::vector<GeoVertex>& ring) {
     for (size_t j = i + 1; j < n; ++j)
       if (ring[i].lon_deg == ring[j].lon_deg && ring[i].lat_deg == ring[j].lat_deg)
         return fmt::format("vertices {} and {} are the same point; give an open ring without repeats", i, j);
-  double twice_area = 0.0;  // shoelace formula
-  for (size_t i = 0; i < n; ++i) {
-    const GeoVertex& a = ring[i];
-    const GeoVertex& b = ring[(i + 1) % n];
-    twice_area += a.lon_deg * b.lat_deg - b.lon_deg * a.lat_deg;
-  }
-  if (std::abs(twice_area) < 1e-9) return std::string("the region has zero area (its vertices are collinear)");
   for (size_t i = 0; i < n; ++i) {
     for (size_t j = i + 1; j < n; ++j) {
       const bool adjacent = (j == i + 1) || (i == 0 && j == n - 1);
@@ -67,6 +60,13 @@ std::optional<std::string> polygon_problem(const std::vector<GeoVertex>& ring) {
                            i, (i + 1) % n, j, (j + 1) % n);
     }
   }
+  double twice_area = 0.0;  // shoelace formula
+  for (size_t i = 0; i < n; ++i) {
+    const GeoVertex& a = ring[i];
+    const GeoVertex& b = ring[(i + 1) % n];
+    twice_area += a.lon_deg * b.lat_deg - b.lon_deg * a.lat_deg;
+  }
+  if (std::abs(twice_area) < 1e-9) return std::string("the region has zero area (its vertices are collinear)");
   return std::nullopt;
 }
 

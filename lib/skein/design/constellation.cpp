@@ -18,7 +18,7 @@ double walker_plane_raan_rad(const Shell& shell, int plane) {
 double walker_slot_arg_latitude_rad(const Shell& shell, int plane, int slot) {
   assert(shell.planes > 0 && shell.satellites % shell.planes == 0);
   const int per_plane = shell.satellites / shell.planes;
-  const double u_deg = slot * 360.0 / per_plane + plane * shell.phasing * 360.0 / shell.satellites;
+  const double u_deg = slot * 360.0 / per_plane + plane * (shell.phasing * 360.0) / shell.satellites;
   return wrap_two_pi(u_deg * rad_per_deg);
 }
 

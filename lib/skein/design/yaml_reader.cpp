@@ -305,7 +305,7 @@ MapReader::MapReader(std::string file, const YAML::Node& node, std::string path,
                                              fmt::join(allowed, ", "), describe(node_)));
   std::map<std::string, YAML::Mark> seen;
   for (auto it = node_.begin(); it != node_.end(); ++it) {
-    const YAML::Node& k = it->first;
+    const YAML::Node k = it->first;  // a copy: the iterator yields a temporary pair
     if (!k.IsScalar()) fail_at(file_, k, path_, "a key must be a plain word");
     const std::string key = k.Scalar();
     if (std::find(allowed.begin(), allowed.end(), key) == allowed.end()) {

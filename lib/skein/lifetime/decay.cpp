@@ -8,7 +8,7 @@ namespace skein {
 namespace {
 
 constexpr double circular_e = 1e-6;     // below this the orbit is treated as circular
-constexpr int quadrature_intervals = 32;  // trapezoid over E in [0, pi] (the integrands are even in E)
+constexpr int quadrature_intervals = 24;  // trapezoid over E in [0, pi]; the integrands are even in E
 constexpr long max_steps = 2000000;
 
 double perigee_altitude_km(const EarthModel& earth, const DecayPoint& s) {
@@ -79,6 +79,9 @@ DecayResult integrate_decay(const EarthModel& earth, const DensityFn& density, d
     const double length_km = std::max(scale_height_km(density, hp, s.t_days), 0.5 * s.a_km * s.e);
     const double speed = std::abs(k1.da_km_per_day);
     double dt = speed > 0.0 ? opt.step_fraction * length_km / speed : opt.max_step_days;
+    // With a target, take at least five steps to reach it so the crossing is interpolated inside a short step.
+    if (opt.stop_below_a_km > 0.0 && speed > 0.0)
+      dt = std::min(dt, 0.2 * std::max(start.a_km - opt.stop_below_a_km, 1e-3) / speed);
     dt = std::clamp(dt, 1e-6, opt.max_step_days);
     dt = std::min(dt, start.t_days + opt.horizon_days - s.t_days);
     const DragRates k2 = rates(s.t_days + dt / 2, s.a_km + dt / 2 * k1.da_km_per_day, s.e + dt / 2 * k1.de_per_day);

@@ -15,8 +15,8 @@ using DensityFn = std::function<double(double altitude_km, double t_days)>;
 //   delta a = -B a^2 Int_0^2pi rho(r) (1 + e cos E)^(3/2) / (1 - e cos E)^(1/2) dE
 //   delta e = -B a (1 - e^2) Int_0^2pi rho(r) [(1 + e cos E)/(1 - e cos E)]^(1/2) cos E dE
 // divided by the Kepler period. For e = 0: delta a = -2 pi B rho a^2, so da/dt = -rho B sqrt(mu a).
-// Source: D.G. King-Hele, "Theory of Satellite Orbits in an Atmosphere" (Butterworths 1964), ch. 3,
-// the per-revolution changes with atmospheric rotation factor F = 1 (also SMAD, Wertz & Larson 1999, sec. 8.1).
+// Source: D.G. King-Hele, "Theory of Satellite Orbits in an Atmosphere" (Butterworths 1964): the
+// per-revolution changes of a and e, here with atmospheric rotation factor F = 1 (no rotating atmosphere).
 struct DragRates {
   double da_km_per_day = 0.0;
   double de_per_day = 0.0;
@@ -49,7 +49,8 @@ struct DecayResult {
 };
 
 // Integrate from `start` (t, a, e) with classical RK4 on (a, e), steps set by the perigee density scale
-// height (step_fraction) and capped by max_step_days. Asserts b_m2_kg > 0 and finite state.
+// height (step_fraction), at least five per descent to stop_below_a_km, and capped by max_step_days.
+// Asserts b_m2_kg > 0 and finite state.
 DecayResult integrate_decay(const EarthModel& earth, const DensityFn& density, double b_m2_kg,
                             const DecayPoint& start, const DecayOptions& options);
 

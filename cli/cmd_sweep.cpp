@@ -1,0 +1,316 @@
+// skein sweep SWEEP.yaml: evaluate many layouts of one shell (coverage and budget), keep every row in a
+// journal as it finishes, and write the results table and the best front. Runs on the cores of one machine
+// (TBB) and, started by an MPI launcher, over the ranks of a cluster (mpi_split).
+#include <unistd.h>
+
+#include <atomic>
+#include <chrono>
+#include <condition_variable>
+#include <exception>
+#include <filesystem>
+#include <map>
+#include <fstream>
+#include <memory>
+#include <mutex>
+#include <sstream>
+#include <thread>
+
+#include <fmt/format.h>
+#include <tbb/global_control.h>
+
+#include "commands.hpp"
+#include "skein/error.hpp"
+#include "skein/io/atomic_write.hpp"
+#include "skein/sweep/journal.hpp"
+#include "skein/sweep/results_rows.hpp"
+#include "skein/sweep/sweep_outputs.hpp"
+#include "skein/sweep/sweep_run.hpp"
+#ifdef SKEIN_HAVE_MPI
+#include "skein/sweep/mpi_split.hpp"
+#endif
+
+namespace skein::cli {
+namespace {
+
+constexpr const char* caution =
+    "caution: these are preliminary design estimates; operations, collision avoidance and licensing follow the "
+    "applicable national rules, international debris-mitigation standards and licensed flight-dynamics practice.\n";
+
+std::string fmt_duration(double s) {
+  if (!(s >= 0.0) || s > 1e8) return "--:--";
+  const long t = static_cast<long>(s + 0.5);
+  return t >= 3600 ? fmt::format("{}:{:02d}:{:02d}", t / 3600, (t / 60) % 60, t % 60)
+                   : fmt::format("{}:{:02d}", t / 60, t % 60);
+}
+
+// A progress bar on stderr (only when stderr is a terminal): share done, rate and time remaining.
+class ProgressBar {
+ public:
+  ProgressBar(const std::atomic<long>& done, long total) : done_(done), total_(total) {
+    if (!isatty(STDERR_FILENO) || total <= 0) return;
+    start_ = std::chrono::steady_clock::now();
+    thread_ = std::thread([this] {
+      std::unique_lock<std::mutex> lock(m_);
+      while (!cv_.wait_for(lock, std::chrono::milliseconds(500), [this] { return stop_; })) draw();
+    });
+  }
+  ~ProgressBar() {
+    if (!thread_.joinable()) return;
+    {
+      std::lock_guard<std::mutex> lock(m_);
+      stop_ = true;
+    }
+    cv_.notify_all();
+    thread_.join();
+    print_stderr("\r" + std::string(78, ' ') + "\r");
+  }
+  ProgressBar(const ProgressBar&) = delete;
+  ProgressBar& operator=(const ProgressBar&) = delete;
+
+ private:
+  void draw() {
+    const long d = done_.load();
+    const double f = static_cast<double>(d) / static_cast<double>(total_);
+    const double s = std::chrono::duration<double>(std::chrono::steady_clock::now() - start_).count();
+    const double rate = s > 0.0 ? static_cast<double>(d) / s : 0.0;
+    const int width = 24, fill = static_cast<int>(f * width);
+    print_stderr(fmt::format("\rsweep [{}{}] {:5.1f} % {}/{} layouts  {:.2f}/s  left {}  ", std::string(fill, '#'),
+                             std::string(width - fill, '-'), 100.0 * f, d, total_, rate,
+                             rate > 0.0 ? fmt_duration(static_cast<double>(total_ - d) / rate) : std::string("--:--")));
+  }
+  const std::atomic<long>& done_;
+  long total_;
+  std::chrono::steady_clock::time_point start_;
+  std::mutex m_;
+  std::condition_variable cv_;
+  bool stop_ = false;
+  std::thread thread_;
+};
+
+std::string read_text(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  std::ostringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+struct Options {
+  std::string sweep;
+  std::string out;
+  std::string format = "table";
+  bool resume = false, restart = false, force = false, exhaustive = false;
+  int threads = 0;
+};
+
+// Rank 0 (or the only process): the journal's finished rows, after checking and compacting it.
+std::map<size_t, std::string> open_journal(const Options& opt, const std::string& dir, const Sweep& sweep,
+                                           const LayoutSet& set, long* damaged) {
+  std::error_code ec;
+  std::filesystem::create_directories(dir, ec);
+  if (ec || !std::filesystem::is_directory(dir))
+    throw InputError(fmt::format("{}: cannot create the output folder ({}); expected a writable path for --out", dir,
+                                 ec ? ec.message() : "not a folder"));
+  const std::string path = (std::filesystem::path(dir) / "journal.txt").string();
+  const std::string header = journal_header(sweep.fingerprint, set.layouts.size());
+  std::map<size_t, std::string> rows;
+  if (std::filesystem::exists(path) && !opt.restart) {
+    const std::string text = read_text(path);
+    if (!opt.resume && text.size() > header.size())
+      throw InputError(fmt::format("{}: a journal of an earlier run is there; pass --resume to continue it or --restart "
+                                   "to discard it",
+                                   path));
+    if (opt.resume) {
+      const JournalContents j = parse_journal(text, header, set.layouts.size(), sweep_columns(sweep).size(), path);
+      rows = j.rows;
+      *damaged = j.damaged_lines;
+    }
+  }
+  // Rewrite it with the valid lines only, so that appended lines never follow a cut-short one.
+  std::string compact = header;
+  for (const auto& [i, row] : rows) compact += journal_line(i, row);
+  write_file_atomic(path, compact);
+  return rows;
+}
+
+void write_outputs(const Options& opt, const std::string& dir, const Sweep& sweep, const LayoutSet& set,
+                   const std::map<size_t, std::string>& rows, long resumed, long damaged) {
+  const SweepOutputs out = assemble_outputs(sweep, set, rows);
+  namespace fs = std::filesystem;
+  write_file_atomic((fs::path(dir) / "results.csv").string(), out.results_csv);
+  write_file_atomic((fs::path(dir) / "results.jsonl").string(), out.results_jsonl);
+  write_file_atomic((fs::path(dir) / "front.csv").string(), out.front_csv);
+  if (!out.front_svg.empty()) write_file_atomic((fs::path(dir) / "front.svg").string(), out.front_svg);
+  const SweepSummary& s = out.summary;
+  std::string note = fmt::format(
+      "sweep {}: {} layouts ({} resumed from the journal{}), {} evaluated, {} refused by an evaluator, {} meet the "
+      "requirement, {} on the best front\n",
+      sweep.name, s.layouts, resumed, damaged ? fmt::format(", {} damaged journal lines recomputed", damaged) : "",
+      s.evaluated, s.errors, s.meeting, s.front);
+  if (s.skipped.total() > 0)
+    note += fmt::format("skipped combinations: {} (P not dividing T: {}, F outside 0..P-1: {}, no sun-synchronous "
+                        "inclination: {}, fold above the satellite count: {})\n",
+                        s.skipped.total(), s.skipped.planes_not_dividing, s.skipped.phasing_out_of_range,
+                        s.skipped.no_sun_synchronous, s.skipped.fold_above_satellites);
+  if (s.cheapest_meeting)
+    note += fmt::format("cheapest layout meeting the requirement: {} ({})\n", *s.cheapest_meeting,
+                        walker_label(set.layouts[*s.cheapest_meeting]));
+  else
+    note += "no layout meets the requirement\n";
+  note += fmt::format("written: {}/results.csv, results.jsonl, front.csv{}\n", dir, out.front_svg.empty() ? "" : ", front.svg");
+  print_stderr(note);
+  print_stderr(caution);
+  const OutputFormat f = format_of(opt.format);
+  if (f == OutputFormat::json)
+    print_stdout(render(out.front, f) + "\n");
+  else
+    print_stdout(render(out.front, f));
+}
+
+void run(const Options& opt) {
+  int rank = 0, ranks = 1;
+#ifdef SKEIN_HAVE_MPI
+  std::unique_ptr<mpi_split::Session> mpi;
+  if (mpi_split::launched()) {
+    mpi = std::make_unique<mpi_split::Session>();
+    rank = mpi->rank();
+    ranks = mpi->size();
+  }
+#endif
+  std::unique_ptr<tbb::global_control> threads;
+  if (opt.threads > 0)
+    threads = std::make_unique<tbb::global_control>(tbb::global_control::max_allowed_parallelism,
+                                                    static_cast<size_t>(opt.threads));
+  // Every rank reads and expands the same sweep, so every rank holds the same numbered layouts.
+  Sweep sweep;
+  LayoutSet set;
+  LayoutEvaluationOptions eval;
+  eval.mode = opt.exhaustive ? CoverageMode::exhaustive : CoverageMode::culled;
+  eval.force = opt.force;
+  double estimate_s = 0.0;
+  try {
+    sweep = read_sweep_file(opt.sweep);
+    set = expand_layouts(sweep, opt.force ? hard_max_layouts : default_max_layouts);
+    estimate_s = estimate_sweep_seconds(sweep, set, eval);
+  } catch (const InputError&) {
+    if (rank != 0) throw CLI::RuntimeError(2);  // rank 0 reports it
+    throw;
+  }
+  const std::string dir = !opt.out.empty() ? opt.out : std::filesystem::path(opt.sweep).stem().string() + "-results";
+
+  std::map<size_t, std::string> rows;
+  long damaged = 0;
+  std::string status;  // rank 0 to the others: "ok" and the finished mask, or "error"
+  std::exception_ptr setup_error;
+  if (rank == 0) {
+    try {
+      rows = open_journal(opt, dir, sweep, set, &damaged);
+      status = "ok";
+      std::string mask(set.layouts.size(), '0');
+      for (const auto& r : rows) mask[r.first] = '1';
+      status += mask;
+    } catch (...) {
+      setup_error = std::current_exception();
+      status = "error";
+    }
+  }
+#ifdef SKEIN_HAVE_MPI
+  if (mpi) mpi_split::broadcast(status);
+#endif
+  if (status.rfind("ok", 0) != 0) {
+    if (setup_error) std::rethrow_exception(setup_error);
+    throw CLI::RuntimeError(2);
+  }
+  std::vector<size_t> pending;
+  for (size_t i = 0; i < set.layouts.size(); ++i)
+    if (status[2 + i] == '0') pending.push_back(i);
+  const std::vector<size_t> share = round_robin_share(pending, rank, ranks);
+  const long resumed = static_cast<long>(set.layouts.size() - pending.size());
+
+  if (rank != 0) {
+#ifdef SKEIN_HAVE_MPI
+    try {
+      evaluate_layouts(sweep, set, share, [](size_t i, const std::string& row) { mpi_split::send_row(i, row); }, eval);
+      mpi_split::send_done();
+    } catch (const std::exception& e) {
+      print_stderr(fmt::format("skein: rank {}: {}\n", rank, e.what()));
+      mpi_split::abort(3);
+    }
+#endif
+    return;
+  }
+
+  const double pending_estimate_s =
+      estimate_s * static_cast<double>(pending.size()) / static_cast<double>(std::max<size_t>(1, set.layouts.size()));
+  print_stderr(fmt::format("sweep {}: {} layouts of shell {}, {} to evaluate{}{}\n", sweep.name, set.layouts.size(),
+                           sweep.base.shells[sweep.shell_index].name, pending.size(),
+                           ranks > 1 ? fmt::format(" over {} ranks", ranks) : "",
+                           pending_estimate_s >= 60.0
+                               ? fmt::format("; the coverage work alone is estimated at about {} on 2 cores",
+                                             fmt_duration(pending_estimate_s))
+                               : ""));
+  JournalWriter journal((std::filesystem::path(dir) / "journal.txt").string());
+  std::mutex rows_mutex;
+  std::atomic<long> finished{0};
+  auto keep = [&](size_t i, const std::string& row) {
+    std::lock_guard<std::mutex> lock(rows_mutex);
+    if (rows.count(i)) return;
+    journal.append(journal_line(i, row));
+    rows.emplace(i, row);
+    finished.fetch_add(1);
+  };
+  {
+    ProgressBar bar(finished, static_cast<long>(pending.size()));
+    if (ranks == 1) {
+      evaluate_layouts(sweep, set, share, keep, eval);
+    } else {
+#ifdef SKEIN_HAVE_MPI
+      std::exception_ptr worker_error;
+      std::thread worker([&] {
+        try {
+          evaluate_layouts(sweep, set, share, keep, eval);
+        } catch (...) {
+          worker_error = std::current_exception();
+        }
+      });
+      try {
+        mpi_split::receive_rows(ranks, keep);
+      } catch (const std::exception& e) {  // e.g. the journal cannot be written: end every rank
+        print_stderr(fmt::format("skein: error: {}\n", e.what()));
+        mpi_split::abort(2);
+      }
+      worker.join();
+      if (worker_error) std::rethrow_exception(worker_error);
+#endif
+    }
+  }
+  if (rows.size() != set.layouts.size())
+    throw std::runtime_error(fmt::format("{} of {} rows arrived", rows.size(), set.layouts.size()));
+  write_outputs(opt, dir, sweep, set, rows, resumed, damaged);
+}
+
+}  // namespace
+
+void add_sweep_command(CLI::App& app) {
+  auto opt = std::make_shared<Options>();
+  CLI::App* cmd = app.add_subcommand(
+      "sweep", "Trade sweep: evaluate coverage and budget for every layout of a sweep file's axes (T, P, F, altitude, "
+               "inclination or sun-synchronous node times, elevation mask), mark the layouts meeting the requirement "
+               "and rank the best front of requirement figure against cost. Start it with an MPI launcher "
+               "(mpirun -n N skein sweep ...) to split the layouts over ranks");
+  cmd->add_option("sweep", opt->sweep, "Sweep file (YAML)")->required();
+  cmd->add_option("--out", opt->out, "Output folder (default: SWEEP-NAME-results in the current folder)");
+  add_format_option(*cmd, opt->format);
+  cmd->add_flag("--resume", opt->resume, "Continue an interrupted sweep from its journal (finished rows are kept)");
+  cmd->add_flag("--restart", opt->restart, "Discard an earlier run's journal and start over");
+  cmd->add_flag("--force", opt->force,
+                "Run above the layout limit (20000) and the coverage work and memory limits of each layout");
+  cmd->add_flag("--exhaustive", opt->exhaustive, "Test every (satellite, point) pair instead of culling footprints");
+  cmd->add_option("--threads", opt->threads, "Worker threads per process (default: all cores); rows do not depend on it")
+      ->check(CLI::Range(1, 1024));
+  cmd->callback([opt] {
+    if (opt->resume && opt->restart) throw InputError("--resume and --restart exclude each other; expected one of them");
+    run(*opt);
+  });
+}
+
+}  // namespace skein::cli

@@ -1,0 +1,77 @@
+#include "skein/sweep/evaluate_layout.hpp"
+
+#include <algorithm>
+
+#include <fmt/format.h>
+
+#include "skein/budget/budget.hpp"
+#include "skein/coverage/evaluate.hpp"
+#include "skein/error.hpp"
+
+namespace skein {
+namespace {
+
+double figure_of(const LayoutMetrics& m, RequirementFigure f) {
+  switch (f) {
+    case RequirementFigure::percent_covered: return m.percent_covered;
+    case RequirementFigure::worst_instant_percent: return m.worst_instant_percent;
+    case RequirementFigure::max_gap_s: return m.max_gap_s;
+    case RequirementFigure::p95_gap_s: return m.p95_gap_s;
+    case RequirementFigure::mean_response_time_s: return m.mean_response_time_s;
+  }
+  return 0.0;
+}
+
+}  // namespace
+
+CoverageOptions sweep_coverage_options(const Sweep& sweep, const LayoutEvaluationOptions& options) {
+  CoverageOptions c;
+  c.max_fold = sweep.requirement.fold;
+  c.mode = options.mode;
+  c.force = options.force;
+  return c;
+}
+
+LayoutMetrics evaluate_layout(const Sweep& sweep, const Layout& layout, const LayoutEvaluationOptions& options) {
+  LayoutMetrics m;
+  const Design design = layout_design(sweep, layout);
+  for (const Shell& s : design.shells) m.design_satellites += s.satellites;
+  try {
+    const CoverageResult cov = evaluate_coverage(design, sweep_coverage_options(sweep, options));
+    BudgetOptions bopt;
+    bopt.level_curves = false;  // only the selected activity's lifetime is reported
+    const BudgetResult bud = compute_budget(design, bopt);
+    const size_t k = static_cast<size_t>(sweep.requirement.fold - 1);
+    m.percent_covered = cov.total.percent_by_fold.at(k);
+    m.worst_instant_percent = cov.worst_instant_covered_percent.at(k);
+    m.max_gap_s = cov.total.max_gap_s;
+    m.mean_gap_s = cov.total.mean_gap_s;
+    m.p95_gap_s = cov.total.p95_gap_s;
+    m.mean_response_time_s = cov.total.mean_response_time_s;
+    m.mean_in_view = cov.total.mean_in_view;
+    const ShellBudget& sb = bud.shells.at(sweep.shell_index);
+    m.lifetime_days = sb.lifetime_natural_days;
+    m.lifetime_lower_bound = sb.lifetime_lower_bound;
+    m.dv_per_satellite_m_s = sb.total_dv_m_s;
+    m.fleet_dv_m_s = bud.fleet_dv_m_s;
+    m.propellant_per_satellite_kg = sb.propellant_kg;
+    m.fleet_propellant_kg = bud.fleet_propellant_kg;
+    m.exceeds_tank = std::any_of(bud.shells.begin(), bud.shells.end(), [](const ShellBudget& s) { return s.exceeds_tank; });
+    m.evaluated = true;
+  } catch (const InputError& e) {
+    m.evaluated = false;
+    m.error = e.what();
+    return m;
+  }
+  for (const Threshold& t : sweep.requirement.thresholds) {
+    const double v = figure_of(m, t.figure);
+    if (higher_is_better(t.figure) ? v < t.value : v > t.value)
+      m.failed.push_back(fmt::format("{} {:.6g} {} {:.6g}", to_string(t.figure), v,
+                                     higher_is_better(t.figure) ? "<" : ">", t.value));
+  }
+  if (sweep.requirement.within_tank && m.exceeds_tank) m.failed.push_back("propellant exceeds the tank");
+  m.meets = m.failed.empty();
+  return m;
+}
+
+}  // namespace skein

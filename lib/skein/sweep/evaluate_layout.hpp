@@ -1,0 +1,48 @@
+#pragma once
+// Evaluation of one layout of a sweep: coverage (evaluate_coverage) and budget (compute_budget) on the layout's
+// design, the requirement check and the cost figures.
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "skein/coverage/evaluate.hpp"
+#include "skein/sweep/layouts.hpp"
+#include "skein/sweep/sweep_spec.hpp"
+
+namespace skein {
+
+struct LayoutEvaluationOptions {
+  CoverageMode mode = CoverageMode::culled;  // coverage pair selection
+  bool force = false;                        // pass --force to the coverage work limits
+};
+
+struct LayoutMetrics {
+  bool evaluated = false;  // false: the evaluators refused the layout (error holds why)
+  std::string error;
+  int design_satellites = 0;         // every shell
+  // coverage, over the design's (or the sweep's) grid, area-weighted; fold k = requirement.fold
+  double percent_covered = 0.0;      // at fold k
+  double worst_instant_percent = 0.0;  // at fold k
+  double max_gap_s = 0.0, mean_gap_s = 0.0, p95_gap_s = 0.0, mean_response_time_s = 0.0;  // fold 1
+  double mean_in_view = 0.0;
+  // budget of the varied shell and of the whole design
+  double lifetime_days = 0.0;        // varied shell, natural, selected solar activity
+  bool lifetime_lower_bound = false;
+  double dv_per_satellite_m_s = 0.0; // varied shell, margin included
+  double fleet_dv_m_s = 0.0;         // every satellite of the design
+  std::optional<double> propellant_per_satellite_kg;  // varied shell; none without isp_s
+  std::optional<double> fleet_propellant_kg;
+  bool exceeds_tank = false;         // some shell's propellant exceeds the tank capacity
+  // the requirement
+  bool meets = false;
+  std::vector<std::string> failed;   // the checks that failed, e.g. "percent_covered 84.20 < 90"
+};
+
+// Evaluate one layout. InputErrors from the evaluators (for this layout's values) are caught and returned as
+// evaluated = false; they do not stop the sweep.
+LayoutMetrics evaluate_layout(const Sweep& sweep, const Layout& layout, const LayoutEvaluationOptions& options = {});
+
+// The coverage options a sweep uses for a layout (fold k of the requirement, the given mode and force).
+CoverageOptions sweep_coverage_options(const Sweep& sweep, const LayoutEvaluationOptions& options);
+
+}  // namespace skein

@@ -1,0 +1,376 @@
+#include "skein/sweep/sweep_spec.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <filesystem>
+#include <fstream>
+#include <set>
+#include <sstream>
+
+#include <fmt/format.h>
+
+#include "skein/design/design_file.hpp"
+#include "skein/design/yaml_reader.hpp"
+#include "skein/sweep/checksum.hpp"
+
+namespace skein {
+namespace {
+
+using yaml::MapReader;
+
+constexpr double max_altitude_km = 400000.0;  // the design reader's bound on a, less an Earth radius
+
+std::string read_whole_file(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw InputError(fmt::format("{}: cannot read the file; expected a readable file", path));
+  std::ostringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+// The raw values of an axis: a single scalar, a list, or a range {from, to, step} (both ends included).
+std::vector<double> read_number_axis(const MapReader& axes, std::string_view key, double min, double max,
+                                     std::string_view what, bool whole) {
+  const YAML::Node n = axes.node(key);
+  const std::string path = axes.path_of(key);
+  const std::string& file = axes.file();
+  auto value_of = [&](const YAML::Node& item, const std::string& item_path) {
+    const double v = yaml::scalar_number(file, item, item_path, min, max, what);
+    if (whole && v != std::floor(v))
+      yaml::fail_at(file, item, item_path, fmt::format("{} is not a whole number; expected {}", v, what));
+    return v;
+  };
+  std::vector<double> values;
+  if (n.IsScalar()) {
+    values.push_back(value_of(n, path));
+  } else if (n.IsSequence()) {
+    for (size_t i = 0; i < n.size(); ++i) {
+      if (values.size() >= max_axis_values)
+        yaml::fail_at(file, n, path, fmt::format("the axis lists more than {} values; expected at most {}",
+                                                 max_axis_values, max_axis_values));
+      values.push_back(value_of(n[i], fmt::format("{}[{}]", path, i)));
+    }
+  } else if (n.IsMap()) {
+    const MapReader r = axes.map(key, {"from", "to", "step"});
+    const double from = value_of(r.node("from"), r.path_of("from"));
+    const double to = value_of(r.node("to"), r.path_of("to"));
+    const double step = r.number("step", 0.0, 1e9, "a positive step");
+    if (!(step > 0.0)) r.fail_key("step", "a step of 0 expands to nothing; expected a positive step");
+    if (whole && step != std::floor(step)) r.fail_key("step", fmt::format("{} is not a whole step; expected a whole number", step));
+    if (from > to)
+      r.fail(r.self(), path, fmt::format("from {} to {} expands to no values; expected from <= to", from, to));
+    // Both ends included; the small allowance keeps "500 to 600 step 0.1" from losing its last value to rounding.
+    const double count = std::floor((to - from) / step * (1.0 + 1e-12) + 1e-9) + 1.0;
+    if (count > static_cast<double>(max_axis_values))
+      r.fail(r.self(), path, fmt::format("the range holds {:.0f} values; expected at most {}", count, max_axis_values));
+    for (long i = 0; i < static_cast<long>(count); ++i) values.push_back(from + static_cast<double>(i) * step);
+  } else {
+    yaml::fail_at(file, n, path, fmt::format("expected {}: a value, a list, or a range {{from, to, step}}", what));
+  }
+  if (values.empty()) yaml::fail_at(file, n, path, "the axis expands to no values; expected at least one value");
+  std::set<double> seen;
+  for (double v : values)
+    if (!seen.insert(v).second)
+      yaml::fail_at(file, n, path, fmt::format("the value {} appears twice; expected each value once", v));
+  return values;
+}
+
+std::vector<int> to_ints(const std::vector<double>& v) {
+  std::vector<int> out;
+  for (double x : v) out.push_back(static_cast<int>(x));
+  return out;
+}
+
+std::vector<InclinationChoice> read_inclination_axis(const MapReader& axes) {
+  const YAML::Node n = axes.node("inclination_deg");
+  const std::string path = axes.path_of("inclination_deg");
+  std::vector<YAML::Node> items;
+  if (n.IsSequence()) {
+    for (size_t i = 0; i < n.size(); ++i) items.push_back(n[i]);
+  } else if (n.IsScalar()) {
+    items.push_back(n);
+  } else if (n.IsMap()) {
+    std::vector<InclinationChoice> out;
+    for (double v : read_number_axis(axes, "inclination_deg", 0.0, 180.0, "an inclination in degrees", false))
+      out.push_back({false, v});
+    return out;
+  } else {
+    yaml::fail_at(axes.file(), n, path, "expected inclinations: a list of degrees and/or sun-synchronous, or a range");
+  }
+  if (items.empty()) yaml::fail_at(axes.file(), n, path, "the axis expands to no values; expected at least one value");
+  if (items.size() > max_axis_values)
+    yaml::fail_at(axes.file(), n, path, fmt::format("the axis lists more than {} values", max_axis_values));
+  std::vector<InclinationChoice> out;
+  std::set<double> seen;
+  bool sso = false;
+  for (size_t i = 0; i < items.size(); ++i) {
+    const std::string p = n.IsSequence() ? fmt::format("{}[{}]", path, i) : path;
+    if (items[i].IsScalar() && items[i].Scalar() == "sun-synchronous") {
+      if (sso) yaml::fail_at(axes.file(), items[i], p, "sun-synchronous appears twice; expected it once");
+      sso = true;
+      out.push_back({true, 0.0});
+    } else {
+      const double v = yaml::scalar_number(axes.file(), items[i], p, 0.0, 180.0,
+                                           "an inclination in degrees (0 to 180) or sun-synchronous");
+      if (!seen.insert(v).second)
+        yaml::fail_at(axes.file(), items[i], p, fmt::format("the value {} appears twice; expected each value once", v));
+      out.push_back({false, v});
+    }
+  }
+  return out;
+}
+
+std::vector<LocalTimeChoice> read_ltan_axis(const MapReader& axes) {
+  const YAML::Node n = axes.node("ltan");
+  const std::string path = axes.path_of("ltan");
+  std::vector<std::pair<YAML::Node, std::string>> items;
+  if (n.IsSequence()) {
+    for (size_t i = 0; i < n.size(); ++i) items.emplace_back(n[i], fmt::format("{}[{}]", path, i));
+  } else if (n.IsScalar()) {
+    items.emplace_back(n, path);
+  } else {
+    yaml::fail_at(axes.file(), n, path, "expected node local times: a list of \"HH:MM\"");
+  }
+  if (items.empty()) yaml::fail_at(axes.file(), n, path, "the axis expands to no values; expected at least one \"HH:MM\"");
+  if (items.size() > max_axis_values)
+    yaml::fail_at(axes.file(), n, path, fmt::format("the axis lists more than {} values", max_axis_values));
+  std::vector<LocalTimeChoice> out;
+  std::set<std::string> seen;
+  for (const auto& [item, p] : items) {
+    const std::string text = item.IsScalar() ? item.Scalar() : std::string();
+    const auto h = item.IsScalar() ? parse_local_time_h(text) : std::nullopt;
+    if (!h)
+      yaml::fail_at(axes.file(), item, p, fmt::format("{} is not a local time; expected \"HH:MM\" from 00:00 to 23:59",
+                                                      yaml::quote_for_message(text)));
+    if (!seen.insert(text).second)
+      yaml::fail_at(axes.file(), item, p, fmt::format("{} appears twice; expected each time once", yaml::quote_for_message(text)));
+    out.push_back({text, *h});
+  }
+  return out;
+}
+
+std::string format_ltan(double hours) {
+  const int minutes = static_cast<int>(std::lround(hours * 60.0));
+  return fmt::format("{:02d}:{:02d}", minutes / 60, minutes % 60);
+}
+
+SweepAxes read_axes(const MapReader& root, const Sweep& sw) {
+  const Shell& shell = sw.base.shells[sw.shell_index];
+  const double re = sw.base.earth.radius_km;
+  SweepAxes ax;
+  if (!root.has("axes")) root.fail(root.self(), root.path(), "missing key axes; expected the axes to vary, e.g. satellites, planes");
+  const MapReader m = root.map("axes", {"satellites", "planes", "phasing", "altitude_km", "inclination_deg", "ltan",
+                                        "min_elevation_deg"});
+  ax.satellites = m.has("satellites")
+                      ? to_ints(read_number_axis(m, "satellites", 1, 100000, "a satellite count T from 1 to 100000", true))
+                      : std::vector<int>{shell.satellites};
+  ax.planes = m.has("planes") ? to_ints(read_number_axis(m, "planes", 1, 100000, "a plane count P from 1 to 100000", true))
+                              : std::vector<int>{shell.planes};
+  if (m.has("phasing")) {
+    const YAML::Node f = m.node("phasing");
+    if (f.IsScalar() && f.Scalar() == "all") {
+      ax.phasing = std::nullopt;
+    } else {
+      ax.phasing = to_ints(read_number_axis(m, "phasing", -1000000, 1000000, "a relative phasing F (or all)", true));
+    }
+  } else {
+    ax.phasing = std::vector<int>{shell.phasing};
+  }
+  if (m.has("altitude_km")) {
+    ax.altitude_km = read_number_axis(m, "altitude_km", -re, max_altitude_km, "an altitude in km", false);
+    for (double alt : ax.altitude_km) {
+      const double perigee = (re + alt) * (1.0 - shell.e) - re;
+      if (perigee < minimum_perigee_altitude_km)
+        m.fail_key("altitude_km", fmt::format("altitude {} km puts the perigee at {:.1f} km, below {} km; expected orbits "
+                                              "that clear the atmosphere",
+                                              alt, perigee, minimum_perigee_altitude_km));
+    }
+  } else {
+    ax.altitude_km = {shell.a_km - re};
+  }
+  if (m.has("inclination_deg")) {
+    ax.inclinations = read_inclination_axis(m);
+  } else {
+    ax.inclinations = {{shell.sun_synchronous, shell.sun_synchronous ? 0.0 : shell.inclination_deg}};
+  }
+  const bool any_sso = std::any_of(ax.inclinations.begin(), ax.inclinations.end(),
+                                   [](const InclinationChoice& c) { return c.sun_synchronous; });
+  if (m.has("ltan")) {
+    if (!any_sso)
+      m.fail_key("ltan", "ltan applies only to sun-synchronous layouts; add sun-synchronous to inclination_deg or remove ltan");
+    ax.ltans = read_ltan_axis(m);
+  } else if (any_sso) {
+    if (!shell.ltan_h)
+      m.fail(m.self(), m.path(),
+             fmt::format("sun-synchronous layouts need node local times: the base shell {} has no ltan; expected "
+                         "axes.ltan, e.g. [\"10:30\"]",
+                         shell.name));
+    ax.ltans = {{format_ltan(*shell.ltan_h), *shell.ltan_h}};
+  }
+  ax.min_elevation_deg = m.has("min_elevation_deg")
+                             ? read_number_axis(m, "min_elevation_deg", 0.0, 89.0, "an elevation mask in degrees (0 to 89)", false)
+                             : std::vector<double>{sw.base.coverage.min_elevation_deg};
+  return ax;
+}
+
+Requirement read_requirement(const MapReader& root, const Design& base) {
+  if (!root.has("requirement"))
+    root.fail(root.self(), root.path(), "missing key requirement; expected e.g. requirement: {min_percent_covered: 90}");
+  const MapReader m = root.map("requirement", {"fold", "min_percent_covered", "min_worst_instant_percent", "max_gap_s",
+                                               "max_p95_gap_s", "max_mean_response_time_s", "figure", "within_tank"});
+  Requirement r;
+  r.fold = static_cast<int>(m.optional_integer("fold", 1, 16, "a coverage fold k from 1 to 16").value_or(1));
+  struct Key {
+    const char* key;
+    RequirementFigure figure;
+    double max;
+    const char* what;
+  };
+  const Key keys[] = {
+      {"min_percent_covered", RequirementFigure::percent_covered, 100.0, "a percent of time covered (0 to 100)"},
+      {"min_worst_instant_percent", RequirementFigure::worst_instant_percent, 100.0, "a percent of the grid (0 to 100)"},
+      {"max_gap_s", RequirementFigure::max_gap_s, 1e9, "a revisit gap in s"},
+      {"max_p95_gap_s", RequirementFigure::p95_gap_s, 1e9, "a revisit gap in s"},
+      {"max_mean_response_time_s", RequirementFigure::mean_response_time_s, 1e9, "a response time in s"},
+  };
+  for (const Key& k : keys)
+    if (m.has(k.key)) r.thresholds.push_back({k.figure, m.number(k.key, 0.0, k.max, k.what)});
+  if (r.thresholds.empty())
+    m.fail(m.self(), m.path(),
+           "the requirement sets no threshold; expected at least one of min_percent_covered, min_worst_instant_percent, "
+           "max_gap_s, max_p95_gap_s, max_mean_response_time_s");
+  if (m.has("figure")) {
+    r.figure = *requirement_figure_from_string(m.choice(
+        "figure", {"percent_covered", "worst_instant_percent", "max_gap_s", "p95_gap_s", "mean_response_time_s"}));
+  } else {
+    r.figure = r.thresholds.front().figure;
+  }
+  if (m.has("within_tank")) {
+    r.within_tank = m.boolean("within_tank");
+    if (r.within_tank && (!base.spacecraft.isp_s || !base.spacecraft.propellant_capacity_kg))
+      m.fail_key("within_tank", "within_tank needs spacecraft.isp_s and spacecraft.propellant_capacity_kg in the base design");
+  }
+  return r;
+}
+
+std::vector<CostFigure> read_costs(const MapReader& root, const Design& base) {
+  if (!root.has("cost")) return {CostFigure::satellites, CostFigure::fleet_dv_m_s};
+  std::vector<CostFigure> out;
+  const auto items = root.sequence("cost");
+  for (size_t i = 0; i < items.size(); ++i) {
+    const std::string p = fmt::format("{}[{}]", root.path_of("cost"), i);
+    const std::string text = items[i].IsScalar() ? items[i].Scalar() : std::string();
+    const auto c = cost_figure_from_string(text);
+    if (!c)
+      yaml::fail_at(root.file(), items[i], p,
+                    fmt::format("{} is not a cost figure; expected satellites, fleet_dv_m_s, fleet_propellant_kg, "
+                                "dv_per_satellite_m_s or propellant_per_satellite_kg",
+                                yaml::quote_for_message(text)));
+    if (std::find(out.begin(), out.end(), *c) != out.end())
+      yaml::fail_at(root.file(), items[i], p, fmt::format("{} appears twice; expected each cost once", text));
+    if ((*c == CostFigure::fleet_propellant_kg || *c == CostFigure::propellant_per_satellite_kg) && !base.spacecraft.isp_s)
+      yaml::fail_at(root.file(), items[i], p, "a propellant cost needs spacecraft.isp_s in the base design");
+    out.push_back(*c);
+  }
+  return out;
+}
+
+Sweep read_sweep(const YAML::Node& node, const std::string& file, const std::string& folder, const std::string& text) {
+  const MapReader root(file, node, "", {"name", "base", "shell", "coverage", "axes", "requirement", "cost"});
+  Sweep sw;
+  sw.file = file;
+  sw.name = root.string("name", "a sweep name");
+  const std::string base = root.string("base", "the base design file, relative to the sweep file");
+  const std::filesystem::path base_path = std::filesystem::path(base).is_absolute()
+                                              ? std::filesystem::path(base)
+                                              : std::filesystem::path(folder) / base;
+  sw.base_file = base_path.lexically_normal().string();
+  if (!std::filesystem::is_regular_file(sw.base_file))
+    root.fail_key("base", fmt::format("the base design {} is not a readable file; expected a design file path relative "
+                                      "to the sweep file",
+                                      yaml::quote_for_message(sw.base_file)));
+  sw.base = read_design_file(sw.base_file);
+  if (root.has("shell")) {
+    const std::string shell = root.string("shell", "the name of the shell to vary");
+    auto it = std::find_if(sw.base.shells.begin(), sw.base.shells.end(), [&](const Shell& s) { return s.name == shell; });
+    if (it == sw.base.shells.end()) {
+      std::vector<std::string_view> names;
+      for (const auto& s : sw.base.shells) names.push_back(s.name);
+      root.fail_key("shell", fmt::format("the base design has no shell {}; expected one of its shells{}",
+                                         yaml::quote_for_message(shell),
+                                         yaml::closest_match(shell, names).empty()
+                                             ? std::string()
+                                             : " (did you mean " + yaml::closest_match(shell, names) + "?)"));
+    }
+    sw.shell_index = static_cast<size_t>(it - sw.base.shells.begin());
+  }
+  if (sw.base.shells[sw.shell_index].pattern == PatternKind::explicit_planes)
+    root.fail(root.self(), root.path(),
+              fmt::format("the varied shell {} is an explicit shell; expected a walker-delta or walker-star shell",
+                          sw.base.shells[sw.shell_index].name));
+  if (root.has("coverage")) sw.base.coverage = read_coverage_spec(root);
+  sw.axes = read_axes(root, sw);
+  sw.axes_location = yaml::location(file, root.node("axes").Mark());
+  sw.requirement = read_requirement(root, sw.base);
+  sw.costs = read_costs(root, sw.base);
+  std::uint64_t h = fnv1a64(text);
+  h = fnv1a64(read_whole_file(sw.base_file), h);
+  h = fnv1a64(SKEIN_VERSION, h);
+  sw.fingerprint = hex64(h);
+  return sw;
+}
+
+}  // namespace
+
+std::string_view to_string(RequirementFigure f) {
+  switch (f) {
+    case RequirementFigure::percent_covered: return "percent_covered";
+    case RequirementFigure::worst_instant_percent: return "worst_instant_percent";
+    case RequirementFigure::max_gap_s: return "max_gap_s";
+    case RequirementFigure::p95_gap_s: return "p95_gap_s";
+    case RequirementFigure::mean_response_time_s: return "mean_response_time_s";
+  }
+  return "?";
+}
+
+std::optional<RequirementFigure> requirement_figure_from_string(std::string_view text) {
+  for (RequirementFigure f : {RequirementFigure::percent_covered, RequirementFigure::worst_instant_percent,
+                              RequirementFigure::max_gap_s, RequirementFigure::p95_gap_s,
+                              RequirementFigure::mean_response_time_s})
+    if (to_string(f) == text) return f;
+  return std::nullopt;
+}
+
+bool higher_is_better(RequirementFigure f) {
+  return f == RequirementFigure::percent_covered || f == RequirementFigure::worst_instant_percent;
+}
+
+std::string_view to_string(CostFigure c) {
+  switch (c) {
+    case CostFigure::satellites: return "satellites";
+    case CostFigure::fleet_dv_m_s: return "fleet_dv_m_s";
+    case CostFigure::fleet_propellant_kg: return "fleet_propellant_kg";
+    case CostFigure::dv_per_satellite_m_s: return "dv_per_satellite_m_s";
+    case CostFigure::propellant_per_satellite_kg: return "propellant_per_satellite_kg";
+  }
+  return "?";
+}
+
+std::optional<CostFigure> cost_figure_from_string(std::string_view text) {
+  for (CostFigure c : {CostFigure::satellites, CostFigure::fleet_dv_m_s, CostFigure::fleet_propellant_kg,
+                       CostFigure::dv_per_satellite_m_s, CostFigure::propellant_per_satellite_kg})
+    if (to_string(c) == text) return c;
+  return std::nullopt;
+}
+
+Sweep read_sweep_file(const std::string& path) {
+  const std::string text = read_whole_file(path);
+  const std::string folder = std::filesystem::path(path).parent_path().string();
+  return read_sweep(yaml::load_file(path), path, folder.empty() ? "." : folder, text);
+}
+
+Sweep read_sweep_text(const std::string& text, const std::string& name, const std::string& folder) {
+  return read_sweep(yaml::load_text(text, name), name, folder, text);
+}
+
+}  // namespace skein

@@ -1,0 +1,98 @@
+#pragma once
+// A sweep file: the base design, the shell to vary, the axes of the trade (T, P, F, altitude, inclination or
+// sun-synchronous with node local times, elevation mask), the coverage requirement and the cost figures the
+// best front is ranked by. The file format is documented in the README ("Trade sweeps").
+#include <cstddef>
+#include <optional>
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include "skein/design/design.hpp"
+
+namespace skein {
+
+// The coverage figure a layout is judged on (and that the front trades against cost).
+enum class RequirementFigure {
+  percent_covered,        // area-weighted percent of time with at least k satellites in view (higher is better)
+  worst_instant_percent,  // lowest share of the grid covered at fold k at any sample instant (higher is better)
+  max_gap_s,              // worst point's longest revisit gap, fold 1 (lower is better)
+  p95_gap_s,              // 95th percentile of the pooled gap distribution, fold 1 (lower is better)
+  mean_response_time_s    // area-weighted mean wait until the next coverage, fold 1 (lower is better)
+};
+std::string_view to_string(RequirementFigure figure);
+std::optional<RequirementFigure> requirement_figure_from_string(std::string_view text);
+bool higher_is_better(RequirementFigure figure);
+
+// A cost figure to rank layouts by (every cost is lower-is-better).
+enum class CostFigure {
+  satellites,                  // all satellites of the design (every shell)
+  fleet_dv_m_s,                // delta-v over the mission life summed over every satellite of the design
+  fleet_propellant_kg,         // propellant summed over every satellite (needs spacecraft.isp_s)
+  dv_per_satellite_m_s,        // the varied shell's per-satellite delta-v
+  propellant_per_satellite_kg  // the varied shell's per-satellite propellant (needs spacecraft.isp_s)
+};
+std::string_view to_string(CostFigure cost);
+std::optional<CostFigure> cost_figure_from_string(std::string_view text);
+
+// A threshold on one figure: "at least" for higher-is-better figures, "at most" for the others.
+struct Threshold {
+  RequirementFigure figure = RequirementFigure::percent_covered;
+  double value = 0.0;
+};
+
+struct Requirement {
+  int fold = 1;                       // k of percent_covered and worst_instant_percent (default 1)
+  std::vector<Threshold> thresholds;  // all must hold; at least one
+  RequirementFigure figure = RequirementFigure::percent_covered;  // the front's performance axis
+  bool within_tank = false;           // also require the propellant to fit spacecraft.propellant_capacity_kg
+};
+
+// One value of the inclination axis.
+struct InclinationChoice {
+  bool sun_synchronous = false;
+  double inclination_deg = 0.0;  // when not sun-synchronous
+};
+
+// One node local time of the ltan axis.
+struct LocalTimeChoice {
+  std::string text;  // "HH:MM" as written
+  double hours = 0.0;
+};
+
+// The resolved axes: every axis holds at least one value (an absent axis holds the base shell's value).
+struct SweepAxes {
+  std::vector<int> satellites;                 // T
+  std::vector<int> planes;                     // P
+  std::optional<std::vector<int>> phasing;     // F; nullopt: every F from 0 to P-1 ("all")
+  std::vector<double> altitude_km;
+  std::vector<InclinationChoice> inclinations;
+  std::vector<LocalTimeChoice> ltans;          // used by sun-synchronous choices only (empty when there is none)
+  std::vector<double> min_elevation_deg;
+};
+
+// Stated limits (common practice for a desktop trade study; --force lifts the layout limit).
+constexpr double default_max_layouts = 20000;   // layouts a sweep may expand to without --force
+constexpr double hard_max_layouts = 2000000;    // never expanded, even with --force (memory of the layout list)
+constexpr size_t max_axis_values = 10000;       // values one axis may hold
+
+struct Sweep {
+  std::string file;            // the sweep file
+  std::string name;            // its `name`
+  std::string base_file;       // the base design file, as resolved from the sweep file's folder
+  Design base;                 // the base design, with the sweep's coverage block (when given) in place
+  size_t shell_index = 0;      // the shell that is varied
+  SweepAxes axes;
+  std::string axes_location;   // "FILE:LINE:COL" of the axes block, for messages about the whole expansion
+  Requirement requirement;
+  std::vector<CostFigure> costs;  // at least one; the first is the plot's x axis
+  std::string fingerprint;     // hash of the sweep and base design texts and the program version (for resume)
+};
+
+// Read and validate a sweep file and its base design. Throws InputError naming file:line:column and what was
+// expected; an axis that expands to no value is an error.
+Sweep read_sweep_file(const std::string& path);
+// The same from text; the base design path is resolved against `folder`.
+Sweep read_sweep_text(const std::string& text, const std::string& name, const std::string& folder);
+
+}  // namespace skein
