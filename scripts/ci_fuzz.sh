@@ -9,17 +9,8 @@ cd "$(dirname "$0")/.."
 
 packages=(clang libclang-rt-14-dev cmake pkg-config libeigen3-dev libyaml-cpp-dev libtbb-dev libcli11-dev libfmt-dev
           nlohmann-json3-dev)
-missing=()
-for p in "${packages[@]}"; do
-  dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing+=("$p")
-done
-if [ ${#missing[@]} -gt 0 ]; then
-  echo "ci_fuzz: installing ${missing[*]}" >&2
-  sudo_cmd=""
-  [ "$(id -u)" -ne 0 ] && sudo_cmd="sudo"
-  $sudo_cmd apt-get update -qq
-  DEBIAN_FRONTEND=noninteractive $sudo_cmd apt-get install -y -qq --no-install-recommends "${missing[@]}" >/dev/null
-fi
+. scripts/install_missing.sh
+install_missing "${packages[@]}"
 
 build_dir="${SKEIN_FUZZ_DIR:-build-fuzz}"
 seconds="${SKEIN_FUZZ_SECONDS:-60}"

@@ -7,17 +7,8 @@ cd "$(dirname "$0")/.."
 
 packages=(build-essential cmake pkg-config libeigen3-dev libyaml-cpp-dev libtbb-dev doctest-dev libcli11-dev
           libfmt-dev nlohmann-json3-dev liberfa-dev python3 python3-numpy)
-missing=()
-for p in "${packages[@]}"; do
-  dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing+=("$p")
-done
-if [ ${#missing[@]} -gt 0 ]; then
-  echo "ci_sanitize: installing ${missing[*]}" >&2
-  sudo_cmd=""
-  [ "$(id -u)" -ne 0 ] && sudo_cmd="sudo"
-  $sudo_cmd apt-get update -qq
-  DEBIAN_FRONTEND=noninteractive $sudo_cmd apt-get install -y -qq --no-install-recommends "${missing[@]}" >/dev/null
-fi
+. scripts/install_missing.sh
+install_missing "${packages[@]}"
 
 build_dir="${SKEIN_ASAN_DIR:-build-asan}"
 cmake -S . -B "$build_dir" -DCMAKE_BUILD_TYPE=Debug "-DCMAKE_CXX_FLAGS_DEBUG=-g -O1" -DSKEIN_SANITIZE=ON \

@@ -10,17 +10,8 @@ packages=(build-essential cmake pkg-config libeigen3-dev libyaml-cpp-dev libtbb-
 # liberfa-dev and python3-numpy are reference oracles for the tests; chromium renders the report page in a
 # test; OpenMPI carries sweeps across machines.
 packages+=(${SKEIN_EXTRA_PACKAGES:-})
-missing=()
-for p in "${packages[@]}"; do
-  dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing+=("$p")
-done
-if [ ${#missing[@]} -gt 0 ]; then
-  echo "setup: installing ${missing[*]}" >&2
-  sudo_cmd=""
-  [ "$(id -u)" -ne 0 ] && sudo_cmd="sudo"
-  $sudo_cmd apt-get update -qq
-  DEBIAN_FRONTEND=noninteractive $sudo_cmd apt-get install -y -qq --no-install-recommends "${missing[@]}" >/dev/null
-fi
+. scripts/install_missing.sh
+install_missing "${packages[@]}"
 
 build_dir="${SKEIN_BUILD_DIR:-build}"
 cmake -S . -B "$build_dir" -DCMAKE_BUILD_TYPE=RelWithDebInfo ${SKEIN_CMAKE_ARGS:-} >/dev/null

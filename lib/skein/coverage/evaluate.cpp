@@ -5,6 +5,7 @@
 #include <cmath>
 #include <numeric>
 
+#include <Eigen/Geometry>
 #include <fmt/format.h>
 #include <tbb/blocked_range.h>
 #include <tbb/parallel_for.h>
@@ -56,12 +57,17 @@ struct PointGeo {
 struct SatPos {
   double x, y, z, ux, uy, uz;
 };
+// Earth-fixed velocity, km/s (for the pass-boundary interpolation only, so kept apart from the positions).
+struct SatVel {
+  double vx, vy, vz;
+};
 
 // Satellite positions (Earth-fixed) for a window of sample instants.
 struct PositionBuffer {
   long first = 0, count = 0;
   int sats = 0;
   std::vector<SatPos> pos;                   // [local * sats + s]
+  std::vector<SatVel> vel;                   // [local * sats + s]
   std::vector<double> cull_rad;              // per-satellite cull radius at each instant
   std::vector<double> guaranteed_cos;        // per instant: every satellite within this cosine is a candidate
   // Per instant, the satellites sorted by geocentric latitude (for the exact k-th-nearest search): index,
@@ -86,6 +92,7 @@ struct Row {
 
 struct Geometry {
   double sin_min = 0.0;
+  double sin_min2 = 0.0;  // sin_min squared
   bool cone = false;
   double cos_cone = 0.0;
 };
@@ -104,8 +111,11 @@ inline double margin(const PointGeo& p, const PositionBuffer& b, size_t i, const
 inline bool visible(const PointGeo& p, const PositionBuffer& b, size_t i, const Geometry& g) {
   const SatPos& q = b.pos[i];
   const double dx = q.x - p.rx, dy = q.y - p.ry, dz = q.z - p.rz;
-  if (dx * p.nx + dy * p.ny + dz * p.nz < 0.0) return false;  // below the horizontal plane (mask >= 0)
-  return margin(p, b, i, g) >= 0.0;
+  const double up = dx * p.nx + dy * p.ny + dz * p.nz;
+  if (up < 0.0) return false;  // below the horizontal plane (mask >= 0)
+  if (g.cone) return margin(p, b, i, g) >= 0.0;
+  // sin(elevation) >= sin(mask) with both sides non-negative, squared so that no root or division is needed.
+  return up * up >= g.sin_min2 * (dx * dx + dy * dy + dz * dz);
 }
 
 // Insert the cosine c into the descending top-K list (K >= 1); the list's values do not depend on the order
@@ -122,55 +132,79 @@ inline void insert_top(double* top, int K, double c) {
 
 inline double cos_to(const PointGeo& p, const SatPos& q) { return p.ux * q.ux + p.uy * q.uy + p.uz * q.uz; }
 
-// Time of the sign change of the margin of (p, s) inside (t_{j-1}, t_j). The margin is known exactly at the
-// sample instants; between them it is replaced by the interpolating polynomial through up to four instants
-// (j-2 .. j+1), whose root is found by the safeguarded Newton iteration below.
-double crossing_time(const PointGeo& p, const PositionBuffer& b, const Sampling& smp, long j, int s, const Geometry& g) {
-  long lo = std::max<long>(0, j - 2), hi = std::min<long>(smp.n - 1, j + 1);
-  lo = std::max(lo, b.first);
-  hi = std::min(hi, b.first + b.count - 1);
-  double t[4], f[4];
-  int m = 0;
-  for (long k = lo; k <= hi; ++k, ++m) {
-    t[m] = smp.time(k);
-    f[m] = margin(p, b, b.at(k, s), g);
+// The two terms of the visibility margin of satellite s from point p at a buffered instant and their time
+// derivatives (1/s), from the satellite's Earth-fixed velocity v: with d = r_sat - r_ground and L = |d|,
+// the mask term d.n / L - sin(mask) has the rate v.n / L - (d.n)(d.v) / L^3; the payload-cone term
+// d.u / L - cos(half-angle), with u = r_sat/|r_sat| and du/dt = (v - u (u.v)) / |r_sat|, has the rate
+// (v.u + d.du/dt) / L - (d.u)(d.v) / L^3. Without a cone the second term is +infinity.
+struct MarginTerms {
+  double mask, mask_rate, cone, cone_rate;
+};
+inline MarginTerms margin_terms(const PointGeo& p, const SatPos& q, const SatVel& w, const Geometry& g) {
+  MarginTerms r;
+  const double dx = q.x - p.rx, dy = q.y - p.ry, dz = q.z - p.rz;
+  const double len2 = dx * dx + dy * dy + dz * dz;
+  const double inv = 1.0 / std::sqrt(len2);
+  const double dn = dx * p.nx + dy * p.ny + dz * p.nz;
+  const double vn = w.vx * p.nx + w.vy * p.ny + w.vz * p.nz;
+  const double dv = dx * w.vx + dy * w.vy + dz * w.vz;
+  r.mask = dn * inv - g.sin_min;
+  r.mask_rate = (vn - dn * dv * inv * inv) * inv;
+  r.cone = 1e300;
+  r.cone_rate = 0.0;
+  if (g.cone) {
+    const double du = dx * q.ux + dy * q.uy + dz * q.uz;
+    const double r_inv = 1.0 / std::sqrt(q.x * q.x + q.y * q.y + q.z * q.z);
+    const double uv = q.ux * w.vx + q.uy * w.vy + q.uz * w.vz;  // v.u
+    const double d_du = (dx * (w.vx - q.ux * uv) + dy * (w.vy - q.uy * uv) + dz * (w.vz - q.uz * uv)) * r_inv;
+    r.cone = du * inv - g.cos_cone;
+    r.cone_rate = (uv + d_du - du * dv * inv * inv) * inv;
   }
-  // Newton divided differences, so the interpolant costs three multiplications per evaluation.
-  for (int level = 1; level < m; ++level)
-    for (int a = m - 1; a >= level; --a) f[a] = (f[a] - f[a - 1]) / (t[a] - t[a - level]);
-  const auto poly = [&](double x) {
-    double v = f[m - 1];
-    for (int q = m - 2; q >= 0; --q) v = v * (x - t[q]) + f[q];
-    return v;
-  };
-  double a = smp.time(j - 1), bb = smp.time(j);
-  double fa = poly(a), fb = poly(bb);
-  if (fa == 0.0) return a;
-  if ((fa < 0.0) == (fb < 0.0)) return 0.5 * (a + bb);  // not bracketed by rounding: take the midpoint
-  // Safeguarded Newton iteration on the interpolant (value and slope by Horner's rule), started at the secant
-  // root of the bracket. The bracket is kept up to date; a step leaving it is replaced by bisection. Stops when
-  // the step is below 1e-6 s, far under the interpolation residual (about 0.01 s at a 60 s step).
-  double x = (a * fb - bb * fa) / (fb - fa);
+  return r;
+}
+
+// Time of the sign change of the margin of (p, s) inside (t_{j-1}, t_j). The margin and its rate are evaluated
+// exactly at the two bracketing instants (from the buffered Earth-fixed positions and velocities, no new
+// orbit evaluation); between them the margin is replaced by the cubic Hermite interpolant of those four values
+// (error h^4 max|f''''| / 384 for a step h; C. de Boor, "A Practical Guide to Splines", 1978, ch. II). Its root
+// is found by a safeguarded Newton iteration started at the secant root.
+double crossing_time(const PointGeo& p, const PositionBuffer& b, const Sampling& smp, long j, int s, const Geometry& g) {
+  const double t0 = smp.time(j - 1), t1 = smp.time(j), h = t1 - t0;
+  const MarginTerms e0 = margin_terms(p, b.pos[b.at(j - 1, s)], b.vel[b.at(j - 1, s)], g);
+  const MarginTerms e1 = margin_terms(p, b.pos[b.at(j, s)], b.vel[b.at(j, s)], g);
+  // The margin is the smaller term. Follow the term that is the smaller one at the end out of view: it is the
+  // one that crosses zero, and it is smooth, whereas the minimum has a kink where the terms swap.
+  const MarginTerms& out = std::min(e0.mask, e0.cone) < std::min(e1.mask, e1.cone) ? e0 : e1;
+  const bool use_cone = out.cone < out.mask;
+  double f0 = use_cone ? e0.cone : e0.mask, d0 = use_cone ? e0.cone_rate : e0.mask_rate;
+  double f1 = use_cone ? e1.cone : e1.mask, d1 = use_cone ? e1.cone_rate : e1.mask_rate;
+  if (f0 == 0.0) return t0;
+  if ((f0 < 0.0) == (f1 < 0.0)) return 0.5 * (t0 + t1);  // not bracketed by rounding: take the midpoint
+  // Power form in x = (t - t0) / h: c0 + c1 x + c2 x^2 + c3 x^3.
+  const double c0 = f0, c1 = h * d0, c2 = 3.0 * (f1 - f0) - h * (2.0 * d0 + d1), c3 = 2.0 * (f0 - f1) + h * (d0 + d1);
+  double a = 0.0, bb = 1.0;
+  const bool fb_negative = f1 < 0.0;
+  double x = f0 / (f0 - f1);
+  // Newton steps; the bracket [a, bb] is kept, and a step leaving it is replaced by bisection. Stops after a
+  // Newton step below 1e-4 of the interval, which leaves an error far under the interpolation residual.
   for (int it = 0; it < 12; ++it) {
-    double v = f[m - 1], d = 0.0;
-    for (int q = m - 2; q >= 0; --q) {
-      d = d * (x - t[q]) + v;
-      v = v * (x - t[q]) + f[q];
-    }
-    if (v == 0.0) return x;
-    if ((v < 0.0) == (fb < 0.0)) {
+    const double v = c0 + x * (c1 + x * (c2 + x * c3));
+    const double dv = c1 + x * (2.0 * c2 + x * 3.0 * c3);
+    if (v == 0.0) break;
+    if ((v < 0.0) == fb_negative) {
       bb = x;
-      fb = v;
     } else {
       a = x;
-      fa = v;
     }
-    double xn = d != 0.0 ? x - v / d : 0.5 * (a + bb);
-    if (!(xn > a && xn < bb)) xn = 0.5 * (a + bb);
-    if (std::abs(xn - x) < 1e-6) return xn;
+    double xn = dv != 0.0 ? x - v / dv : 0.5 * (a + bb);
+    const bool newton = xn > a && xn < bb;
+    if (!newton) xn = 0.5 * (a + bb);
+    // After a Newton step of size delta the error is O(delta^2), so 1e-4 of the interval leaves about 1e-8 of it.
+    const bool done = newton && std::abs(xn - x) < 1e-4;
     x = xn;
+    if (done) break;
   }
-  return x;
+  return t0 + x * h;
 }
 
 std::vector<Row> build_rows(const std::vector<PointGeo>& geo) {
@@ -197,6 +231,32 @@ std::vector<Row> build_rows(const std::vector<PointGeo>& geo) {
   return rows;
 }
 
+// std::lower_bound / std::upper_bound on a row's ascending longitudes, started from the linear guess (exact
+// for the evenly spaced rows of global, band and region grids) and corrected by stepping, so the result is the
+// same as the binary search for any row.
+inline long row_guess(const Row& row, double x) {
+  const long n = static_cast<long>(row.lon.size());
+  if (n < 2) return 0;
+  const double f = (x - row.lon.front()) / (row.lon.back() - row.lon.front()) * static_cast<double>(n - 1);
+  if (!(f > 0.0)) return 0;
+  if (f >= static_cast<double>(n)) return n;
+  return static_cast<long>(f);
+}
+inline long row_lower_bound(const Row& row, double x) {
+  const long n = static_cast<long>(row.lon.size());
+  long k = row_guess(row, x);
+  while (k > 0 && row.lon[static_cast<size_t>(k - 1)] >= x) --k;
+  while (k < n && row.lon[static_cast<size_t>(k)] < x) ++k;
+  return k;
+}
+inline long row_upper_bound(const Row& row, double x) {
+  const long n = static_cast<long>(row.lon.size());
+  long k = row_guess(row, x);
+  while (k > 0 && row.lon[static_cast<size_t>(k - 1)] > x) --k;
+  while (k < n && row.lon[static_cast<size_t>(k)] <= x) ++k;
+  return k;
+}
+
 struct Window {
   int row;
   std::uint32_t begin, end;
@@ -206,12 +266,12 @@ struct Window {
 // the longitude window of half-width acos((cos lambda - sin psi sin psi_s) / (cos psi cos psi_s)) (the spherical
 // law of cosines), so the cost follows the pairs inside the caps, not satellites x points.
 void build_candidates(const PositionBuffer& b, long step, const std::vector<Row>& rows, const std::vector<double>& row_psi,
-                      size_t npoints, StepCandidates& out, std::vector<Window>& windows, std::vector<int>& window_sat) {
+                      size_t npoints, StepCandidates& out, std::vector<Window>& windows, std::vector<int>& window_sat,
+                      std::vector<std::uint32_t>& fill) {
   windows.clear();
   window_sat.clear();
   const auto add = [&](int r, const Row& row, double lo, double hi, int s) {
-    const auto b0 = std::lower_bound(row.lon.begin(), row.lon.end(), lo) - row.lon.begin();
-    const auto b1 = std::upper_bound(row.lon.begin(), row.lon.end(), hi) - row.lon.begin();
+    const long b0 = row_lower_bound(row, lo), b1 = row_upper_bound(row, hi);
     if (b1 > b0) {
       windows.push_back({r, static_cast<std::uint32_t>(b0), static_cast<std::uint32_t>(b1)});
       window_sat.push_back(s);
@@ -261,7 +321,7 @@ void build_candidates(const PositionBuffer& b, long step, const std::vector<Row>
   }
   for (size_t k = 0; k < npoints; ++k) out.offset[k + 1] += out.offset[k];
   out.sats.resize(out.offset[npoints]);
-  std::vector<std::uint32_t> fill(out.offset.begin(), out.offset.end() - 1);
+  fill.assign(out.offset.begin(), out.offset.end() - 1);
   for (size_t wi = 0; wi < windows.size(); ++wi) {
     const Window& w = windows[wi];
     const Row& row = rows[static_cast<size_t>(w.row)];
@@ -440,7 +500,7 @@ CoverageWorkEstimate estimate(const Design& design, const CoverageSettings& st, 
   const double gaps = std::min(passes, static_cast<double>(e.steps) / 2.0 + 1.0);
   const double per_point = 160.0 + 16.0 * st.max_fold + 8.0 * in_view_bins + 4.0 * gaps + 8.0 * std::max(1.0, cand);
   const double chunk = mode == CoverageMode::exhaustive ? 0.0 : 4.0 * chunk_entry_budget + 64.0 * 4.0 * (static_cast<double>(points) + 1.0);
-  e.memory_bytes = static_cast<double>(points) * per_point * 2.0 + chunk + 70.0 * st.satellites * 56.0;
+  e.memory_bytes = static_cast<double>(points) * per_point * 2.0 + chunk + 70.0 * st.satellites * 112.0;  // per satellite-instant: position, velocity, cull radius, latitude order
   e.seconds_2_cores = (3e-9 * e.pair_tests + 60e-9 * e.point_steps) / 2.0;
   return e;
 }
@@ -497,6 +557,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
 
   Geometry gm;
   gm.sin_min = std::sin(st.spec.min_elevation_deg * rad_per_deg);
+  gm.sin_min2 = gm.sin_min * gm.sin_min;
   if (st.spec.nadir_half_angle_deg) {
     gm.cone = true;
     gm.cos_cone = std::cos(*st.spec.nadir_half_angle_deg * rad_per_deg);
@@ -519,11 +580,12 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
 
   for (long c0 = 0; c0 < smp.n; c0 += chunk) {
     const long c1 = std::min(smp.n, c0 + chunk);
-    buf.first = std::max<long>(0, c0 - 2);
-    const long last = std::min(smp.n - 1, c1);
+    buf.first = std::max<long>(0, c0 - 1);
+    const long last = c1 - 1;  // a crossing in (t_{j-1}, t_j] needs instants j-1 and j only
     buf.count = last - buf.first + 1;
     const size_t cells = static_cast<size_t>(buf.count) * static_cast<size_t>(T);
     buf.pos.resize(cells);
+    buf.vel.resize(cells);
     buf.cull_rad.resize(cells);
     if (!exhaustive) {
       buf.by_lat.resize(cells);
@@ -538,10 +600,23 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
         const double theta = theta0 + earth.rotation_rad_s * t;
         double guaranteed = pi;
         for (int s = 0; s < T; ++s) {
-          const Eigen::Vector3d r_ef = inertial_to_earth_fixed(state_at(earth, orbits[static_cast<size_t>(s)], t).r_km, theta);
+          const StateVector sv = state_at(earth, orbits[static_cast<size_t>(s)], t);
+          const Eigen::Vector3d r_ef = inertial_to_earth_fixed(sv.r_km, theta);
           const size_t i = buf.at(step, s);
           const double len = r_ef.norm();
+          // Time derivative of the secular-model position (not the osculating Kepler velocity): with the rates of
+          // M, omega and Omega, dr/dt = v_kep (dM/dt)/n + (domega/dt) h x r + (dOmega/dt) z x r, h the orbit normal
+          // (chain rule on r(Omega(t), omega(t), M(t)); v_kep = n dr/dM, Vallado 2013 sec. 2.3).
+          const SecularRates& rt = orbits[static_cast<size_t>(s)].rates;
+          const Eigen::Vector3d h_unit = sv.r_km.cross(sv.v_km_s).normalized();
+          const Eigen::Vector3d v_in = sv.v_km_s * (rt.mean_anomaly_rad_s / rt.mean_motion_rad_s) +
+                                       rt.argp_rad_s * h_unit.cross(sv.r_km) +
+                                       rt.raan_rad_s * Eigen::Vector3d(-sv.r_km.y(), sv.r_km.x(), 0.0);
+          // Earth-fixed velocity: v_ef = R3(theta) v_in - w x r_ef, with w = (0, 0, w_E) (rotating-frame kinematics).
+          const Eigen::Vector3d v_ef = inertial_to_earth_fixed(v_in, theta) +
+                                       Eigen::Vector3d(earth.rotation_rad_s * r_ef.y(), -earth.rotation_rad_s * r_ef.x(), 0.0);
           buf.pos[i] = {r_ef.x(), r_ef.y(), r_ef.z(), r_ef.x() / len, r_ef.y() / len, r_ef.z() / len};
+          buf.vel[i] = {v_ef.x(), v_ef.y(), v_ef.z()};
           buf.cull_rad[i] = std::max(visibility_cull_rad(len, min_ground_radius, st), radius_guess);
           guaranteed = std::min(guaranteed, buf.cull_rad[i]);
         }
@@ -566,8 +641,9 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
       tbb::parallel_for(tbb::blocked_range<long>(c0, c1, 1), [&](const tbb::blocked_range<long>& r) {
         std::vector<Window> windows;
         std::vector<int> window_sat;
+        std::vector<std::uint32_t> fill;
         for (long step = r.begin(); step < r.end(); ++step)
-          build_candidates(buf, step, rows, row_psi, P, cands[static_cast<size_t>(step - c0)], windows, window_sat);
+          build_candidates(buf, step, rows, row_psi, P, cands[static_cast<size_t>(step - c0)], windows, window_sat, fill);
       });
     }
 
@@ -658,9 +734,10 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
                   }
                 }
                 // Rises before sets at equal times, so no zero-length gap is made.
-                std::sort(events.begin(), events.end(), [](const auto& x, const auto& y) {
-                  return x.first != y.first ? x.first < y.first : x.second > y.second;
-                });
+                if (events.size() > 1)
+                  std::sort(events.begin(), events.end(), [](const auto& x, const auto& y) {
+                    return x.first != y.first ? x.first < y.first : x.second > y.second;
+                  });
                 double cur = smp.time(step - 1);
                 for (const auto& [tau, delta] : events) {
                   const double te = std::clamp(tau, cur, smp.time(step));

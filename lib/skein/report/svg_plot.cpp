@@ -6,6 +6,8 @@
 
 #include <fmt/format.h>
 
+#include "skein/report/table.hpp"
+
 namespace skein {
 namespace {
 
@@ -14,19 +16,8 @@ constexpr double left = 78, right = 180, top = 42, bottom = 62;  // plot margins
 const std::array<const char*, 8> palette = {"#2f6690", "#d1495b", "#3a9e8f", "#edae49",
                                             "#6a4c93", "#00798c", "#8c6d46", "#5c5c5c"};
 
-std::string esc(const std::string& s) {
-  std::string out;
-  for (char c : s) {
-    switch (c) {
-      case '&': out += "&amp;"; break;
-      case '<': out += "&lt;"; break;
-      case '>': out += "&gt;"; break;
-      case '"': out += "&quot;"; break;
-      default: out += c;
-    }
-  }
-  return out;
-}
+// SVG text is XML: the HTML escaping of the table renderer serves.
+std::string esc(const std::string& s) { return html_escape(s); }
 
 struct Scale {
   double lo, hi, p0, p1;  // data range to pixel range
@@ -151,7 +142,6 @@ std::string line_plot_svg(const PlotAxes& a, const std::vector<Series>& series) 
     }
     std::string d;
     bool pen = false;
-    double last_y = 0;
     for (size_t k = 0; k < se.x.size(); ++k) {
       if (!std::isfinite(se.x[k]) || !std::isfinite(se.y[k])) { pen = false; continue; }
       const double px = sx(std::clamp(se.x[k], xlo, xhi)), py = sy(std::clamp(se.y[k], ylo, yhi));
@@ -159,9 +149,7 @@ std::string line_plot_svg(const PlotAxes& a, const std::vector<Series>& series) 
       else if (se.style == SeriesStyle::step) d += fmt::format("H{:.1f}V{:.1f}", px, py);
       else d += fmt::format("L{:.1f},{:.1f}", px, py);
       pen = true;
-      last_y = py;
     }
-    (void)last_y;
     s += fmt::format("<path d=\"{}\" fill=\"none\" stroke=\"{}\" stroke-width=\"1.8\"/>\n", d, c);
   }
   s += legend(labels, false);
