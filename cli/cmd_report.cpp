@@ -72,8 +72,8 @@ void add_report_command(CLI::App& app) {
     if (!opt->solar.empty()) options.budget.solar = solar_level_from_string(opt->solar);
     options.creation_date = creation_date(opt->created);
     options.ephemeris_step_s = opt->ephemeris_step_s;
-    const std::string out =
-        opt->out.empty() ? "reports/" + std::filesystem::path(opt->design).stem().string() : opt->out;
+    std::string out = opt->out.empty() ? "reports/" + std::filesystem::path(opt->design).stem().string() : opt->out;
+    while (out.size() > 1 && out.back() == '/') out.pop_back();
     const Report report = build_report(design, options);
     write_folder_atomic(out, report.files);
     print_stdout(fmt::format("Report for \"{}\" written to {} ({} files).\n"

@@ -49,7 +49,8 @@ int main(int argc, char** argv) {
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
-    return app.exit(e);
+    // --help and --version end here with 0; every usage error gets status 1.
+    return app.exit(e) == 0 ? 0 : 1;
   } catch (const skein::InputError& e) {
     std::cerr << "skein: error: " << e.what() << "\n";
     return 2;

@@ -44,7 +44,9 @@ void read_orbit(const MapReader& m, const EarthModel& earth, Shell& shell) {
   } else {
     shell.a_km = m.number("semi_major_axis_km", 1.0, max_semi_major_axis_km, "a semi-major axis in km");
   }
-  shell.e = m.optional_number("eccentricity", 0.0, 1e9, "an eccentricity, 0 <= e < 1").value_or(0.0);
+  shell.e = m.optional_number("eccentricity", -1e9, 1e9, "an eccentricity").value_or(0.0);
+  if (shell.e < 0.0)
+    m.fail_key("eccentricity", fmt::format("eccentricity {} is negative; expected 0 <= e < 1", shell.e));
   if (shell.e >= 1.0)
     m.fail_key("eccentricity", fmt::format("eccentricity {} is not a closed orbit; expected 0 <= e < 1", shell.e));
   shell.argp_deg = m.optional_number("arg_perigee_deg", -360.0, 360.0, "an argument of perigee in degrees").value_or(0.0);
