@@ -18,8 +18,9 @@ void write_folder_atomic(const std::string& dir, const std::vector<OutputFile>& 
   if (target.filename().empty()) target = target.parent_path();  // "reports/demo/" -> "reports/demo"
   const fs::path parent = target.has_parent_path() ? target.parent_path() : fs::path(".");
   std::error_code ec;
+  fs::create_directories(parent, ec);  // like mkdir -p: reports/NAME/ works on a fresh checkout
   if (!fs::is_directory(parent, ec))
-    throw InputError(fmt::format("{}: the folder {} does not exist; create it or choose another --out", dir, parent.string()));
+    throw InputError(fmt::format("{}: the folder {} cannot be created; choose another --out", dir, parent.string()));
   if (fs::exists(target, ec) && !fs::is_directory(target, ec))
     throw InputError(fmt::format("{}: exists and is not a folder; expected a folder path for --out", dir));
   std::string tmpl = (parent / ("." + target.filename().string() + ".tmp-XXXXXX")).string();

@@ -12,8 +12,8 @@ struct OutputFile {
   std::string content;
 };
 
-// Replace folder `dir` by one holding exactly `files`. Throws InputError when the parent folder does not
-// exist or cannot be written, or when `dir` exists and is not a folder.
+// Replace folder `dir` by one holding exactly `files`, creating missing parent folders. Throws InputError
+// when the parent folder cannot be created or written, or when `dir` exists and is not a folder.
 void write_folder_atomic(const std::string& dir, const std::vector<OutputFile>& files);
 
 }  // namespace skein
