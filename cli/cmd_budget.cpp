@@ -21,12 +21,11 @@ void add_budget_command(CLI::App& app) {
                 "avoidance, disposal, margin), with propellant by the rocket equation");
   cmd->add_option("design", opt->design, "Design file (YAML)")->required();
   add_format_option(*cmd, opt->format);
-  cmd->add_option("--solar", opt->solar, "Solar activity, overriding budget.solar_activity: low, mean, high or cycle")
-      ->check(CLI::IsMember({"low", "mean", "high", "cycle"}));
+  add_solar_option(*cmd, opt->solar, "Solar activity, overriding budget.solar_activity: low, mean, high or cycle");
   cmd->callback([opt] {
     const Design design = read_design_file(opt->design);
     BudgetOptions options;
-    if (!opt->solar.empty()) options.solar = solar_level_from_string(opt->solar);
+    options.solar = solar_of(opt->solar);
     const BudgetResult result = compute_budget(design, options);
     print_stderr("caution: " + std::string(budget_caution) + "\n");
     for (const auto& w : result.warnings) print_stderr("warning: " + w + "\n");

@@ -9,7 +9,6 @@
 #include <thread>
 
 #include <fmt/format.h>
-#include <tbb/global_control.h>
 
 #include "commands.hpp"
 #include "skein/coverage/evaluate.hpp"
@@ -79,8 +78,7 @@ void add_coverage_command(CLI::App& app) {
   cmd->add_option("--elevation", opt->elevation, "Minimum elevation in degrees (overrides coverage.min_elevation_deg)");
   cmd->add_option("--fold", opt->fold, "Largest fold K reported (overrides coverage.max_fold)");
   cmd->add_flag("--exhaustive", opt->exhaustive, "Test every (satellite, point) pair instead of culling footprints");
-  cmd->add_option("--threads", opt->threads, "Worker threads (default: all cores); results do not depend on it")
-      ->check(CLI::Range(1, 1024));
+  add_threads_option(*cmd, opt->threads, "Worker threads (default: all cores); results do not depend on it");
   cmd->add_flag("--force", opt->force, "Run even when the memory or work estimate exceeds the limits");
   cmd->add_option("--points", opt->points_file, "Also write the per-point table (with cell bounds) to this CSV file");
   cmd->callback([opt] {
@@ -93,10 +91,7 @@ void add_coverage_command(CLI::App& app) {
     options.max_fold = opt->fold;
     options.mode = opt->exhaustive ? CoverageMode::exhaustive : CoverageMode::culled;
     options.force = opt->force;
-    std::unique_ptr<tbb::global_control> threads;
-    if (opt->threads > 0)
-      threads = std::make_unique<tbb::global_control>(tbb::global_control::max_allowed_parallelism,
-                                                      static_cast<size_t>(opt->threads));
+    const auto threads = limit_threads(opt->threads);
     std::atomic<std::int64_t> done{0};
     CoverageResult result;
     if (isatty(STDERR_FILENO)) {

@@ -1,6 +1,4 @@
 // skein report DESIGN.yaml --out reports/NAME/: the whole report folder for one design.
-#include <tbb/global_control.h>
-
 #include <chrono>
 #include <cstdlib>
 #include <filesystem>
@@ -53,23 +51,20 @@ void add_report_command(CLI::App& app) {
                 "coverage cells (GeoJSON) and ephemerides (CCSDS OEM)");
   cmd->add_option("design", opt->design, "Design file (YAML)")->required();
   cmd->add_option("--out", opt->out, "Report folder (default: reports/DESIGN-NAME/); replaced as a whole");
-  cmd->add_option("--solar", opt->solar, "Solar activity for the budget: low, mean, high or cycle (default: the design's)")
-      ->check(CLI::IsMember({"low", "mean", "high", "cycle"}));
+  add_solar_option(*cmd, opt->solar, "Solar activity for the budget: low, mean, high or cycle (default: the design's)");
   cmd->add_option("--creation-date", opt->created,
                   "CREATION_DATE written in the OEM files (default: SOURCE_DATE_EPOCH if set, else now); the only "
                   "time stamp in the report, so fixing it makes the folder byte-identical across runs");
   cmd->add_option("--ephemeris-step", opt->ephemeris_step_s, "OEM sample step in seconds (default 60)")
       ->check(CLI::Range(1.0, 86400.0));
-  cmd->add_option("--threads", opt->threads, "Worker threads (default: all cores); results do not depend on it")
-      ->check(CLI::Range(1, 1024));
+  add_threads_option(*cmd, opt->threads, "Worker threads (default: all cores); results do not depend on it");
   cmd->add_flag("--force", opt->force, "Run the coverage even when its work estimate exceeds the limits");
   cmd->callback([opt] {
     const Design design = read_design_file(opt->design);
-    std::optional<tbb::global_control> threads;
-    if (opt->threads > 0) threads.emplace(tbb::global_control::max_allowed_parallelism, static_cast<size_t>(opt->threads));
+    const auto threads = limit_threads(opt->threads);
     ReportOptions options;
     options.coverage.force = opt->force;
-    if (!opt->solar.empty()) options.budget.solar = solar_level_from_string(opt->solar);
+    options.budget.solar = solar_of(opt->solar);
     options.creation_date = creation_date(opt->created);
     options.ephemeris_step_s = opt->ephemeris_step_s;
     std::string out = opt->out.empty() ? "reports/" + std::filesystem::path(opt->design).stem().string() : opt->out;

@@ -16,7 +16,6 @@
 #include <thread>
 
 #include <fmt/format.h>
-#include <tbb/global_control.h>
 
 #include "commands.hpp"
 #include "skein/error.hpp"
@@ -176,10 +175,7 @@ void run(const Options& opt) {
     ranks = mpi->size();
   }
 #endif
-  std::unique_ptr<tbb::global_control> threads;
-  if (opt.threads > 0)
-    threads = std::make_unique<tbb::global_control>(tbb::global_control::max_allowed_parallelism,
-                                                    static_cast<size_t>(opt.threads));
+  const auto threads = limit_threads(opt.threads);
   // Every rank reads and expands the same sweep, so every rank holds the same numbered layouts.
   Sweep sweep;
   LayoutSet set;
@@ -305,8 +301,7 @@ void add_sweep_command(CLI::App& app) {
   cmd->add_flag("--force", opt->force,
                 "Run above the layout limit (20000) and the coverage work and memory limits of each layout");
   cmd->add_flag("--exhaustive", opt->exhaustive, "Test every (satellite, point) pair instead of culling footprints");
-  cmd->add_option("--threads", opt->threads, "Worker threads per process (default: all cores); rows do not depend on it")
-      ->check(CLI::Range(1, 1024));
+  add_threads_option(*cmd, opt->threads, "Worker threads per process (default: all cores); rows do not depend on it");
   cmd->callback([opt] {
     if (opt->resume && opt->restart) throw InputError("--resume and --restart exclude each other; expected one of them");
     run(*opt);

@@ -23,6 +23,27 @@ OutputFormat format_of(const std::string& format) {
   return *f;
 }
 
+void add_threads_option(CLI::App& cmd, int& threads, const std::string& help) {
+  cmd.add_option("--threads", threads, help)->check(CLI::Range(1, 1024));
+}
+
+std::unique_ptr<tbb::global_control> limit_threads(int threads) {
+  if (threads <= 0) return nullptr;
+  return std::make_unique<tbb::global_control>(tbb::global_control::max_allowed_parallelism,
+                                               static_cast<size_t>(threads));
+}
+
+void add_solar_option(CLI::App& cmd, std::string& solar, const std::string& help) {
+  cmd.add_option("--solar", solar, help)->check(CLI::IsMember({"low", "mean", "high", "cycle"}));
+}
+
+std::optional<SolarLevel> solar_of(const std::string& solar) {
+  if (solar.empty()) return std::nullopt;
+  const auto level = solar_level_from_string(solar);
+  assert(level && "--solar is checked by CLI11");
+  return level;
+}
+
 void print_stdout(const std::string& text) {
   std::fwrite(text.data(), 1, text.size(), stdout);
   std::fflush(stdout);
