@@ -3,19 +3,39 @@
 #include <algorithm>
 #include <cassert>
 #include <cmath>
+#include <limits>
 #include <numeric>
 
 #include <Eigen/Geometry>
 #include <fmt/format.h>
 #include <tbb/blocked_range.h>
+#include <tbb/enumerable_thread_specific.h>
 #include <tbb/parallel_for.h>
 #include <tbb/parallel_reduce.h>
 
+#include "skein/coverage/footprint.hpp"
 #include "skein/coverage/ground_geometry.hpp"
 #include "skein/design/constellation.hpp"
 #include "skein/error.hpp"
 #include "skein/orbit/propagate.hpp"
 #include "skein/time/epoch.hpp"
+
+// How the evaluation runs (both modes give the same numbers, to the bit):
+//  - Satellite positions and velocities are computed for a chunk of sample instants at a time.
+//  - Each ground point keeps a timeline: the number of satellites in view changes only at a rise or a set,
+//    whose time inside the step is refined (crossing_time); the time integrals of the metrics are taken
+//    between those events. A rise or set of (point, satellite) inside (t_{j-1}, t_j] is a pair whose exact
+//    visibility test differs at t_{j-1} and t_j.
+//  - Exhaustive mode tests every pair at every instant and finds the events by comparing the lists of
+//    satellites in view.
+//  - Culled mode sweeps the grid row by row (points of one geocentric latitude). For each satellite near the
+//    row it cuts two footprint bounds into longitude windows (footprint.hpp): outside the outer window the
+//    satellite is not visible, inside the inner window it surely is. Only the points inside the outer window
+//    at t_{j-1} or t_j and not inside the inner window at both instants are tested, so the work follows the
+//    pass boundaries. The k-th nearest satellite (required radius) is searched inside a cap sized to hold
+//    about 4K satellites, with an exact fallback when fewer lie there.
+//  - The area share covered at each instant is summed in integer units of the area weight, so the sum does
+//    not depend on the order in which points are visited.
 
 namespace skein {
 namespace {
@@ -24,11 +44,17 @@ namespace {
 constexpr int in_view_bins = 33;
 // The geodetic vertical departs from the geocentric radial by at most 0.1924 deg on WGS-84 (the largest
 // difference of geodetic and geocentric latitude, at 45 deg; follows from tan psi = (1 - e^2) tan phi,
-// Snyder 1987 eq. 3-28). The footprint cull widens the mask by this much, plus a safety margin.
+// Snyder 1987 eq. 3-28). The work estimate widens the mask by this much, plus a safety margin.
 constexpr double vertical_deflection_rad = 0.2 * rad_per_deg;
 constexpr double cull_margin_rad = 0.25 * rad_per_deg;
-// Candidate entries held per chunk of time steps (bounds the culling buffers to about 80 MB).
-constexpr double chunk_entry_budget = 2e7;
+// Scratch memory of culled mode, a bound used by the work estimate.
+constexpr double culled_scratch_bytes = 8e7;
+// Sample instants held at once: at most 64 (exhaustive) or 16 (culled, whose row sweep reads the buffer once
+// per row, so it should stay in cache), fewer for very large constellations (about 256 MB of buffers).
+constexpr double buffer_budget_bytes = 2.56e8;
+constexpr long culled_chunk = 16;
+// Area weights in integer units: the weight share times 2^53 (exact sums in any order).
+constexpr double weight_units = 9007199254740992.0;
 
 // Sample instants t_j = j * step for j < n - 1 and t_{n-1} = span.
 struct Sampling {
@@ -62,32 +88,28 @@ struct SatVel {
   double vx, vy, vz;
 };
 
+// Satellite state for the culling windows, per instant.
+struct SatAux {
+  double sin_psi, cos_psi, lon, r_km;  // geocentric latitude (sine, cosine), longitude (rad), radius (km)
+};
+
 // Satellite positions (Earth-fixed) for a window of sample instants.
 struct PositionBuffer {
   long first = 0, count = 0;
   int sats = 0;
-  std::vector<SatPos> pos;                   // [local * sats + s]
-  std::vector<SatVel> vel;                   // [local * sats + s]
-  std::vector<double> cull_rad;              // per-satellite cull radius at each instant
-  std::vector<double> guaranteed_cos;        // per instant: every satellite within this cosine is a candidate
-  // Per instant, the satellites sorted by geocentric latitude (for the exact k-th-nearest search): index,
-  // sin and cos of the latitude.
+  std::vector<SatPos> pos;   // [local * sats + s]
+  std::vector<SatVel> vel;   // [local * sats + s]
+  std::vector<SatAux> aux;   // [local * sats + s]
+  // Per instant: the largest outer footprint angle of any satellite over any row, and the largest change of a
+  // satellite's geocentric latitude since the previous instant (both rad).
+  std::vector<double> reach_rad, moved_rad;
+  // Per instant, the satellites sorted by geocentric latitude: index, sin and cos of the latitude.
   std::vector<int> by_lat;
   std::vector<double> by_lat_sin, by_lat_cos;
+  std::vector<SatAux> by_lat_aux;   // aux in the same order
+  std::vector<SatAux> by_lat_prev;  // aux of the previous instant, same order (unset for the buffer's first)
   size_t at(long step, int s) const { return static_cast<size_t>((step - first) * sats + s); }
-};
-
-// Candidate satellites of each point at one instant (CSR, satellites in increasing order).
-struct StepCandidates {
-  std::vector<std::uint32_t> offset;
-  std::vector<int> sats;
-};
-
-// Grid rows for footprint culling: points of one geocentric latitude, sorted by longitude.
-struct Row {
-  double psi = 0.0, sin_psi = 0.0, cos_psi = 0.0;
-  std::vector<double> lon;  // rad, ascending, -pi..pi
-  std::vector<int> point;
+  size_t local(long step) const { return static_cast<size_t>(step - first); }
 };
 
 struct Geometry {
@@ -182,9 +204,23 @@ double crossing_time(const PointGeo& p, const PositionBuffer& b, const Sampling&
   if ((f0 < 0.0) == (f1 < 0.0)) return 0.5 * (t0 + t1);  // not bracketed by rounding: take the midpoint
   // Power form in x = (t - t0) / h: c0 + c1 x + c2 x^2 + c3 x^3.
   const double c0 = f0, c1 = h * d0, c2 = 3.0 * (f1 - f0) - h * (2.0 * d0 + d1), c3 = 2.0 * (f0 - f1) + h * (d0 + d1);
+  const double x_secant = f0 / (f0 - f1);
+  {
+    // Fast path: two plain Newton steps from the secant root. Kept when the result stays inside the step and
+    // the second step moved it by less than 1e-3 of the interval, so the error left is of the order of the
+    // square of that, about 1e-6 of the interval (quadratic convergence), under the interpolation residual.
+    double x = x_secant, dx = 0.0;
+    for (int it = 0; it < 2; ++it) {
+      const double v = c0 + x * (c1 + x * (c2 + x * c3));
+      const double dv = c1 + x * (2.0 * c2 + x * 3.0 * c3);
+      dx = v / dv;
+      x -= dx;
+    }
+    if (x > 0.0 && x < 1.0 && std::abs(dx) < 1e-3) return t0 + x * h;
+  }
   double a = 0.0, bb = 1.0;
   const bool fb_negative = f1 < 0.0;
-  double x = f0 / (f0 - f1);
+  double x = x_secant;
   // Newton steps; the bracket [a, bb] is kept, and a step leaving it is replaced by bisection. Stops after a
   // Newton step below 1e-4 of the interval, which leaves an error far under the interpolation residual.
   for (int it = 0; it < 12; ++it) {
@@ -207,26 +243,59 @@ double crossing_time(const PointGeo& p, const PositionBuffer& b, const Sampling&
   return t0 + x * h;
 }
 
-std::vector<Row> build_rows(const std::vector<PointGeo>& geo) {
+// Grid rows for footprint culling: points of one geocentric latitude, sorted by longitude.
+struct Row {
+  double psi = 0.0, sin_psi = 0.0, cos_psi = 0.0;
+  std::vector<double> lon;  // rad, ascending, in [-pi, pi)
+  std::vector<int> point;
+  FootprintRow bounds;
+  double guess_scale = 0.0;  // (n - 1) / (last - first longitude): index per radian of the linear guess
+};
+
+std::vector<Row> build_rows(const std::vector<PointGeo>& geo, double min_elevation_rad,
+                            std::optional<double> nadir_half_angle_rad) {
   std::vector<int> order(geo.size());
   std::iota(order.begin(), order.end(), 0);
   std::vector<double> psi(geo.size()), lon(geo.size());
   for (size_t i = 0; i < geo.size(); ++i) {
     psi[i] = std::asin(std::clamp(geo[i].uz, -1.0, 1.0));
     lon[i] = std::atan2(geo[i].uy, geo[i].ux);
+    if (lon[i] >= pi) lon[i] -= two_pi;
   }
-  std::sort(order.begin(), order.end(), [&](int a, int b) { return psi[a] != psi[b] ? psi[a] < psi[b] : lon[a] < lon[b]; });
+  std::sort(order.begin(), order.end(), [&](int a, int b) { return psi[a] != psi[b] ? psi[a] < psi[b] : a < b; });
+  // Points of one grid latitude differ in computed geocentric latitude by rounding only; a row takes them all
+  // (within 1e-10 rad, far inside the footprint margins) and uses its first latitude.
   std::vector<Row> rows;
-  for (int i : order) {
-    if (rows.empty() || rows.back().psi != psi[i]) {
-      Row r;
-      r.psi = psi[i];
-      r.sin_psi = std::sin(r.psi);
-      r.cos_psi = std::cos(r.psi);
-      rows.push_back(std::move(r));
+  for (size_t k = 0; k < order.size();) {
+    size_t e = k + 1;
+    while (e < order.size() && psi[static_cast<size_t>(order[e])] - psi[static_cast<size_t>(order[k])] <= 1e-10) ++e;
+    std::sort(order.begin() + static_cast<long>(k), order.begin() + static_cast<long>(e),
+              [&](int a, int b) { return lon[a] != lon[b] ? lon[a] < lon[b] : a < b; });
+    Row r;
+    r.psi = psi[static_cast<size_t>(order[k])];
+    r.sin_psi = std::sin(r.psi);
+    r.cos_psi = std::cos(r.psi);
+    for (size_t m = k; m < e; ++m) {
+      r.lon.push_back(lon[static_cast<size_t>(order[m])]);
+      r.point.push_back(order[m]);
     }
-    rows.back().lon.push_back(lon[i]);
-    rows.back().point.push_back(i);
+    rows.push_back(std::move(r));
+    k = e;
+  }
+  for (Row& r : rows) {
+    double rmin = 1e300, rmax = 0.0, defl = 0.0;
+    for (int i : r.point) {
+      const PointGeo& g = geo[static_cast<size_t>(i)];
+      const double len = std::sqrt(g.rx * g.rx + g.ry * g.ry + g.rz * g.rz);
+      rmin = std::min(rmin, len);
+      rmax = std::max(rmax, len);
+      const Eigen::Vector3d n(g.nx, g.ny, g.nz), u(g.ux, g.uy, g.uz);
+      defl = std::max(defl, std::atan2(n.cross(u).norm(), n.dot(u)));
+    }
+    // Pads: 1 m in radius, 1e-9 rad in deflection, against rounding.
+    if (r.lon.size() > 1 && r.lon.back() > r.lon.front())
+      r.guess_scale = static_cast<double>(r.lon.size() - 1) / (r.lon.back() - r.lon.front());
+    r.bounds = make_footprint_row(rmin - 1e-3, rmax + 1e-3, defl + 1e-9, min_elevation_rad, nadir_half_angle_rad);
   }
   return rows;
 }
@@ -237,7 +306,7 @@ std::vector<Row> build_rows(const std::vector<PointGeo>& geo) {
 inline long row_guess(const Row& row, double x) {
   const long n = static_cast<long>(row.lon.size());
   if (n < 2) return 0;
-  const double f = (x - row.lon.front()) / (row.lon.back() - row.lon.front()) * static_cast<double>(n - 1);
+  const double f = (x - row.lon.front()) * row.guess_scale;
   if (!(f > 0.0)) return 0;
   if (f >= static_cast<double>(n)) return n;
   return static_cast<long>(f);
@@ -257,84 +326,36 @@ inline long row_upper_bound(const Row& row, double x) {
   return k;
 }
 
-struct Window {
-  int row;
-  std::uint32_t begin, end;
-};
-
-// Footprint culling for one instant: each satellite's cull cap is cut into latitude rows, and in each row into
-// the longitude window of half-width acos((cos lambda - sin psi sin psi_s) / (cos psi cos psi_s)) (the spherical
-// law of cosines), so the cost follows the pairs inside the caps, not satellites x points.
-void build_candidates(const PositionBuffer& b, long step, const std::vector<Row>& rows, const std::vector<double>& row_psi,
-                      size_t npoints, StepCandidates& out, std::vector<Window>& windows, std::vector<int>& window_sat,
-                      std::vector<std::uint32_t>& fill) {
-  windows.clear();
-  window_sat.clear();
-  const auto add = [&](int r, const Row& row, double lo, double hi, int s) {
-    const long b0 = row_lower_bound(row, lo), b1 = row_upper_bound(row, hi);
-    if (b1 > b0) {
-      windows.push_back({r, static_cast<std::uint32_t>(b0), static_cast<std::uint32_t>(b1)});
-      window_sat.push_back(s);
-    }
-  };
-  for (int s = 0; s < b.sats; ++s) {
-    const size_t i = b.at(step, s);
-    const double psi_s = std::asin(std::clamp(b.pos[i].uz, -1.0, 1.0));
-    const double lon_s = std::atan2(b.pos[i].uy, b.pos[i].ux);
-    const double lam = b.cull_rad[i];
-    const double cos_lam = std::cos(lam), sin_s = std::sin(psi_s), cos_s = std::cos(psi_s);
-    const auto r0 = std::lower_bound(row_psi.begin(), row_psi.end(), psi_s - lam) - row_psi.begin();
-    const auto r1 = std::upper_bound(row_psi.begin(), row_psi.end(), psi_s + lam) - row_psi.begin();
-    for (auto r = r0; r < r1; ++r) {
-      const Row& row = rows[static_cast<size_t>(r)];
-      const double den = row.cos_psi * cos_s;
-      double half;
-      if (den < 1e-12) {
-        if (row.sin_psi * sin_s < cos_lam) continue;
-        half = pi;
-      } else {
-        const double q = (cos_lam - row.sin_psi * sin_s) / den;
-        if (q > 1.0) continue;
-        half = q <= -1.0 ? pi : std::acos(q);
-      }
-      const int ri = static_cast<int>(r);
-      if (half >= pi) {
-        add(ri, row, -4.0, 4.0, s);
-        continue;
-      }
-      const double lo = lon_s - half, hi = lon_s + half;
-      if (lo < -pi) {
-        add(ri, row, lo + two_pi, 4.0, s);
-        add(ri, row, -4.0, hi, s);
-      } else if (hi >= pi) {
-        add(ri, row, lo, 4.0, s);
-        add(ri, row, -4.0, hi - two_pi, s);
-      } else {
-        add(ri, row, lo, hi, s);
-      }
-    }
-  }
-  out.offset.assign(npoints + 1, 0);
-  for (const Window& w : windows) {
-    const Row& row = rows[static_cast<size_t>(w.row)];
-    for (std::uint32_t k = w.begin; k < w.end; ++k) ++out.offset[static_cast<size_t>(row.point[k]) + 1];
-  }
-  for (size_t k = 0; k < npoints; ++k) out.offset[k + 1] += out.offset[k];
-  out.sats.resize(out.offset[npoints]);
-  fill.assign(out.offset.begin(), out.offset.end() - 1);
-  for (size_t wi = 0; wi < windows.size(); ++wi) {
-    const Window& w = windows[wi];
-    const Row& row = rows[static_cast<size_t>(w.row)];
-    for (std::uint32_t k = w.begin; k < w.end; ++k) out.sats[fill[static_cast<size_t>(row.point[k])]++] = window_sat[wi];
+// Call f(i) for the row points whose longitude lies on the arc from a to b (rad, b - a < 2 pi, any real a),
+// with each end open or closed. Each point is visited at most once.
+template <class F>
+void for_arc(const Row& row, double a, double b, bool open_a, bool open_b, F&& f) {
+  const double shift = two_pi * std::floor((a + pi) * (1.0 / two_pi));
+  a -= shift;  // now in [-pi, pi)
+  b -= shift;
+  const auto lo = [&](double x) { return open_a ? row_upper_bound(row, x) : row_lower_bound(row, x); };
+  const auto hi = [&](double x) { return open_b ? row_lower_bound(row, x) : row_upper_bound(row, x); };
+  const long n = static_cast<long>(row.lon.size());
+  if (b < pi) {
+    for (long k = lo(a), e = hi(b); k < e; ++k) f(k);
+  } else {
+    for (long k = lo(a); k < n; ++k) f(k);
+    for (long k = 0, e = hi(b - two_pi); k < e; ++k) f(k);
   }
 }
 
-// The central angle inside which the k-th nearest satellite is expected: 1.5 times the radius of a cap holding
-// K/T of the sphere (common practice for sizing a search; only speed depends on it, not the result).
+template <class F>
+void for_row(const Row& row, F&& f) {
+  for (long k = 0, n = static_cast<long>(row.lon.size()); k < n; ++k) f(k);
+}
+
+// The central angle inside which the k-th nearest satellite is searched first: twice the radius of a cap
+// holding K/T of the sphere, so about 4K satellites lie there when they are spread evenly (common practice
+// for sizing a search; only speed depends on it, not the result: fewer than K there means an exact scan).
 double radius_search_rad(int k, int satellites) {
   const double x = 1.0 - 2.0 * k / static_cast<double>(satellites);
   if (x <= -1.0) return pi;
-  return std::min(pi, 1.5 * std::acos(x));
+  return std::min(pi, 2.0 * std::acos(x));
 }
 
 // Central angle of the widest footprint of a satellite at orbit radius r, made conservative for the ellipsoid.
@@ -345,9 +366,22 @@ double visibility_cull_rad(double r_km, double min_ground_radius_km, const Cover
   return std::acos(c) - eps + cull_margin_rad;
 }
 
+// A rise (+1) or set (-1) of one satellite seen from one point, at time t (s).
+struct Event {
+  double t;
+  int delta;
+  std::uint32_t point;  // index within the row (culled mode)
+};
+inline bool event_before(const Event& x, const Event& y) {
+  // Rises before sets at equal times, so no zero-length gap is made.
+  return x.t != y.t ? x.t < y.t : x.delta > y.delta;
+}
+
+// The timeline of one ground point: satellites in view now, and the integrals and gaps so far.
 struct PointState {
-  std::vector<int> vis;
+  std::vector<int> vis;  // exhaustive mode: the satellites in view at the last instant, ascending
   std::vector<float> gaps;
+  double last_t = 0.0;   // the integrals below are taken up to this time
   double gap_start = 0.0;
   bool in_gap = false;
   int count = 0;
@@ -355,9 +389,115 @@ struct PointState {
   double count_time = 0.0;
 };
 
+// Per-point integrals: time with at least k in view (k = 1..K) and time with n in view.
+struct PointSums {
+  double* at_least;
+  double* hist;
+  int K;
+};
+
+inline void integrate(PointState& ps, const PointSums& sums, double t) {
+  const double dt = t - ps.last_t;
+  if (dt <= 0.0) return;
+  ps.count_time += ps.count * dt;
+  sums.hist[std::min(ps.count, in_view_bins - 1)] += dt;
+  for (int k = 0; k < std::min(ps.count, sums.K); ++k) sums.at_least[k] += dt;
+  ps.last_t = t;
+}
+
+inline void start_timeline(PointState& ps, int count) {
+  ps.count = count;
+  ps.max_in_view = count;
+  ps.last_t = 0.0;
+  if (count == 0) {
+    ps.in_gap = true;
+    ps.gap_start = 0.0;
+  }
+}
+
+// Apply the events of one step (t0, t1], sorted by event_before. Event times are clamped into the step and
+// kept in order.
+inline void apply_events(PointState& ps, const PointSums& sums, const Event* begin, const Event* end, double t0,
+                         double t1) {
+  double cur = t0;
+  for (const Event* e = begin; e != end; ++e) {
+    const double te = std::clamp(e->t, cur, t1);
+    integrate(ps, sums, te);
+    cur = te;
+    const int before = ps.count;
+    ps.count += e->delta;
+    ps.max_in_view = std::max(ps.max_in_view, ps.count);
+    if (before == 0 && ps.count == 1 && ps.in_gap) {
+      if (te - ps.gap_start > 0.0) ps.gaps.push_back(static_cast<float>(te - ps.gap_start));
+      ps.in_gap = false;
+    } else if (before == 1 && ps.count == 0) {
+      ps.in_gap = true;
+      ps.gap_start = te;
+    }
+  }
+}
+
+// Sort a short run of events (a point's events in one step; usually one to three) by insertion.
+inline void sort_short(Event* begin, Event* end) {
+  for (Event* i = begin + 1; i < end; ++i) {
+    const Event v = *i;
+    Event* j = i;
+    while (j > begin && event_before(v, *(j - 1))) {
+      *j = *(j - 1);
+      --j;
+    }
+    *j = v;
+  }
+}
+
+// The K nearest satellites of a point, exactly, among all satellites at one instant. The central angle to a
+// satellite is at least the difference of the geocentric latitudes, so its cosine is at most
+// cos psi_s cos psi_p + sin psi_s sin psi_p (spherical law of cosines). The satellites are sorted by latitude,
+// so the scan runs outward from the point's latitude and stops on each side once that bound is below the
+// k-th best cosine found (less 1e-12 for rounding). The top-K values do not depend on the scan order, so
+// this equals the full scan. `mid` is where the point's latitude falls in the sorted list (the scan stays exact
+// if it is off by satellites within rounding of that latitude). Returns the number of satellites looked at.
+long nearest_by_latitude(const PointGeo& pg, const PositionBuffer& buf, long step, int K, double* tp, int mid) {
+  std::fill(tp, tp + K, -2.0);
+  const int T = buf.sats;
+  const size_t base = buf.at(step, 0);
+  const SatPos* sp = &buf.pos[base];
+  const int* ord = &buf.by_lat[base];
+  const double* zs = &buf.by_lat_sin[base];
+  const double* cs = &buf.by_lat_cos[base];
+  const double zp = std::clamp(pg.uz, -1.0, 1.0), cp = std::sqrt(1.0 - zp * zp);
+  long looked = 0;
+  for (int k = mid; k < T; ++k) {
+    if (cs[k] * cp + zs[k] * zp < tp[K - 1] - 1e-12) break;
+    insert_top(tp, K, cos_to(pg, sp[ord[k]]));
+    ++looked;
+  }
+  for (int k = mid - 1; k >= 0; --k) {
+    if (cs[k] * cp + zs[k] * zp < tp[K - 1] - 1e-12) break;
+    insert_top(tp, K, cos_to(pg, sp[ord[k]]));
+    ++looked;
+  }
+  return looked;
+}
+
+// Range [lo, hi) of the latitude-sorted satellites at one instant with geocentric latitude within `half`
+// (rad) of psi.
+std::pair<int, int> latitude_range(const PositionBuffer& buf, long step, double psi, double half) {
+  const size_t base = buf.at(step, 0);
+  const double* zs = &buf.by_lat_sin[base];
+  const double lo = psi - half <= -pi / 2 ? -2.0 : std::sin(psi - half);
+  const double hi = psi + half >= pi / 2 ? 2.0 : std::sin(psi + half);
+  const int a = static_cast<int>(std::lower_bound(zs, zs + buf.sats, lo) - zs);
+  const int b = static_cast<int>(std::upper_bound(zs, zs + buf.sats, hi) - zs);
+  return {a, b};
+}
+
+// Work counters and the area share covered at each instant of a chunk (integer weight units: in culled mode
+// the change since the previous instant, in exhaustive mode the value).
 struct Partial {
-  std::vector<double> covered;  // [local step * K + k-1]: area weight with at least k in view
-  std::int64_t pair_tests = 0;
+  std::vector<std::int64_t> covered;  // [local step * K + k-1]
+  std::int64_t pair_tests = 0;      // visibility tests
+  std::int64_t distance_tests = 0;  // central-angle evaluations for the k-th nearest satellite
   std::int64_t fallbacks = 0;
 };
 
@@ -412,6 +552,289 @@ CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::ve
 
 void check_positive(double v, const char* what) {
   if (!(v > 0.0)) throw InputError(fmt::format("{} {} is not positive; expected a value above zero", what, v));
+}
+
+// Everything a row sweep or a point scan reads, and the per-point results it writes.
+struct Sweep {
+  const PositionBuffer& buf;
+  const Sampling& smp;
+  const Geometry& gm;
+  const std::vector<PointGeo>& geo;
+  const std::vector<std::int64_t>& weight_q;
+  int K = 1;
+  int T = 0;
+  double search_rad = 0.0;     // k-th nearest search radius
+  double search_cos = 0.0;     // its cosine: when the k-th best found is at least this, it is exact
+  std::vector<PointState>& state;
+  std::vector<double>& at_least;
+  std::vector<double>& worst_cos;
+  std::vector<double>& hist;
+  PointSums sums(size_t p) const {
+    return {&at_least[p * static_cast<size_t>(K)], &hist[p * in_view_bins], K};
+  }
+};
+
+inline void add_covered(Partial& acc, size_t local_step, int K, int before, int after, std::int64_t wq) {
+  for (int k = 0; k < K; ++k) {
+    const bool a = after > k, b = before > k;
+    if (a != b) acc.covered[local_step * static_cast<size_t>(K) + static_cast<size_t>(k)] += a ? wq : -wq;
+  }
+}
+
+// The outer and inner half-widths of each satellite's windows on one row at one instant, keyed by
+// instant * rows + row (the inner one is no_window when it was not needed there).
+constexpr double no_window = -1e300;
+struct WindowCache {
+  std::vector<long> key;
+  std::vector<double> out, in;
+};
+
+// Scratch of one worker thread in culled mode, kept across rows and chunks.
+struct RowScratch {
+  std::vector<Event> events, sorted;
+  std::vector<std::uint32_t> start;
+  std::vector<int> count;
+  std::vector<double> top;
+  WindowCache cache;
+};
+
+// Culled mode: row number r of `rows_total` over the instants [c0, c1) of the buffer.
+void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0, long c1, Partial& acc,
+               RowScratch& scratch) {
+  const PositionBuffer& buf = sw.buf;
+  std::vector<Event>& events = scratch.events;
+  std::vector<Event>& sorted = scratch.sorted;
+  std::vector<std::uint32_t>& start = scratch.start;
+  std::vector<int>& count = scratch.count;
+  std::vector<double>& top = scratch.top;
+  WindowCache& cache = scratch.cache;
+  if (cache.key.size() != static_cast<size_t>(sw.T)) {
+    cache.key.assign(static_cast<size_t>(sw.T), -1);
+    cache.out.assign(static_cast<size_t>(sw.T), 0.0);
+    cache.in.assign(static_cast<size_t>(sw.T), 0.0);
+  }
+  const size_t n = row.point.size();
+  const int K = sw.K;
+  for (long step = c0; step < c1; ++step) {
+    const SatPos* sp1 = &buf.pos[buf.at(step, 0)];
+    const SatAux* sx1 = &buf.by_lat_aux[buf.at(step, 0)];
+    const int* ord = &buf.by_lat[buf.at(step, 0)];
+    const size_t ls = static_cast<size_t>(step - c0);
+    if (step == 0) {
+      // Satellites in view at the first instant, inside each satellite's outer window.
+      count.assign(n, 0);
+      const auto [a, b] = latitude_range(buf, step, row.psi, buf.reach_rad[buf.local(step)]);
+      for (int k = a; k < b; ++k) {
+        const int s = ord[k];
+        const SatAux& x = sx1[k];
+        const double h = row_half_width(row.sin_psi, row.cos_psi, x.sin_psi, x.cos_psi,
+                                        footprint_cosines(row.bounds, x.r_km).outer, true);
+        if (h < 0.0) continue;
+        const auto test = [&](long i) {
+          ++acc.pair_tests;
+          if (visible(sw.geo[static_cast<size_t>(row.point[static_cast<size_t>(i)])], buf, buf.at(step, s), sw.gm))
+            ++count[static_cast<size_t>(i)];
+        };
+        if (h >= pi) {
+          for_row(row, test);
+        } else {
+          for_arc(row, x.lon - h, x.lon + h, false, false, test);
+        }
+      }
+      for (size_t i = 0; i < n; ++i) {
+        const size_t p = static_cast<size_t>(row.point[i]);
+        start_timeline(sw.state[p], count[i]);
+        add_covered(acc, ls, K, 0, count[i], sw.weight_q[p]);
+      }
+    } else {
+      // Rises and sets inside (t_{j-1}, t_j].
+      events.clear();
+      const SatAux* sx0 = &buf.by_lat_prev[buf.at(step, 0)];
+      const double reach = std::max(buf.reach_rad[buf.local(step)],
+                                    buf.reach_rad[buf.local(step - 1)] + buf.moved_rad[buf.local(step)]);
+      const auto [a, b] = latitude_range(buf, step, row.psi, reach);
+      for (int k = a; k < b; ++k) {
+        const int s = ord[k];
+        const SatAux& x1 = sx1[k];
+        const SatAux& x0 = sx0[k];
+        const FootprintCosines f1 = footprint_cosines(row.bounds, x1.r_km);
+        const FootprintCosines f0 = x0.r_km == x1.r_km ? f1 : footprint_cosines(row.bounds, x0.r_km);
+        const double h1o = row_half_width(row.sin_psi, row.cos_psi, x1.sin_psi, x1.cos_psi, f1.outer, true);
+        // The window of t_{j-1}, from this row's previous instant when it was computed there.
+        const size_t su = static_cast<size_t>(s);
+        const bool cached = cache.key[su] == (step - 1) * rows_total + r;
+        const double h0o = cached ? cache.out[su] : row_half_width(row.sin_psi, row.cos_psi, x0.sin_psi, x0.cos_psi, f0.outer, true);
+        const double cache_in0 = cached ? cache.in[su] : no_window;
+        cache.key[su] = step * rows_total + r;
+        cache.out[su] = h1o;
+        cache.in[su] = no_window;
+        if (h1o < 0.0 && h0o < 0.0) continue;
+        // Longitudes as offsets from the satellite's at t_j; d0 is its offset at t_{j-1}.
+        double d0 = x0.lon - x1.lon;
+        if (d0 > pi) d0 -= two_pi;
+        if (d0 < -pi) d0 += two_pi;
+        constexpr double whole = 4.0 * pi;  // a window that holds the whole row
+        double ulo = 1e300, uhi = -1e300;
+        if (h1o >= 0.0) {
+          ulo = h1o >= pi ? -whole : -h1o;
+          uhi = h1o >= pi ? whole : h1o;
+        }
+        if (h0o >= 0.0) {
+          ulo = std::min(ulo, h0o >= pi ? -whole : d0 - h0o);
+          uhi = std::max(uhi, h0o >= pi ? whole : d0 + h0o);
+        }
+        bool inner = false;
+        double ilo = 0.0, ihi = 0.0;
+        if (h1o >= 0.0 && h0o >= 0.0 && f1.inner <= 1.0 && f0.inner <= 1.0) {
+          const double h1i = row_half_width(row.sin_psi, row.cos_psi, x1.sin_psi, x1.cos_psi, f1.inner, false);
+          cache.in[su] = h1i;
+          const double h0i = h1i < 0.0 ? -1.0
+                             : cache_in0 != no_window
+                                 ? cache_in0
+                                 : row_half_width(row.sin_psi, row.cos_psi, x0.sin_psi, x0.cos_psi, f0.inner, false);
+          if (h1i >= 0.0 && h0i >= 0.0) {
+            ilo = std::max(h1i >= pi ? -whole : -h1i, h0i >= pi ? -whole : d0 - h0i);
+            ihi = std::min(h1i >= pi ? whole : h1i, h0i >= pi ? whole : d0 + h0i);
+            inner = ilo <= ihi;
+          }
+        }
+        if (inner && ihi - ilo >= two_pi) continue;  // the whole row sees the satellite at both instants
+        const size_t i1 = buf.at(step, s), i0 = buf.at(step - 1, s);
+        const auto test = [&](long i) {
+          const size_t p = static_cast<size_t>(row.point[static_cast<size_t>(i)]);
+          const PointGeo& pg = sw.geo[p];
+          acc.pair_tests += 2;
+          const bool v1 = visible(pg, buf, i1, sw.gm), v0 = visible(pg, buf, i0, sw.gm);
+          if (v1 != v0)
+            events.push_back({crossing_time(pg, buf, sw.smp, step, s, sw.gm), v1 ? 1 : -1, static_cast<std::uint32_t>(i)});
+        };
+        if (uhi - ulo >= two_pi) {
+          if (inner) {
+            for_arc(row, x1.lon + ihi, x1.lon + ilo + two_pi, true, true, test);
+          } else {
+            for_row(row, test);
+          }
+        } else if (inner) {
+          for_arc(row, x1.lon + ulo, x1.lon + ilo, false, true, test);
+          for_arc(row, x1.lon + ihi, x1.lon + uhi, true, false, test);
+        } else {
+          for_arc(row, x1.lon + ulo, x1.lon + uhi, false, false, test);
+        }
+      }
+      if (!events.empty()) {
+        // Group the events by point (a counting sort, stable), then order each point's few events in time.
+        start.assign(n + 1, 0);
+        for (const Event& e : events) ++start[e.point + 1];
+        for (size_t i = 0; i < n; ++i) start[i + 1] += start[i];
+        sorted.resize(events.size());
+        for (const Event& e : events) sorted[start[e.point]++] = e;
+        // start[i] is now the end of point i's run.
+        const double t0 = sw.smp.time(step - 1), t1 = sw.smp.time(step);
+        std::uint32_t begin = 0;
+        for (size_t i = 0; i < n; ++i) {
+          const std::uint32_t end = start[i];
+          if (end == begin) continue;
+          Event* eb = sorted.data() + begin;
+          Event* ee = sorted.data() + end;
+          sort_short(eb, ee);
+          const size_t p = static_cast<size_t>(row.point[i]);
+          PointState& ps = sw.state[p];
+          const int before = ps.count;
+          apply_events(ps, sw.sums(p), eb, ee, t0, t1);
+          add_covered(acc, ls, K, before, ps.count, sw.weight_q[p]);
+          begin = end;
+        }
+      }
+    }
+    // The K nearest satellites of each point: those inside the search cap first, then the exact scan where
+    // fewer than K lie there.
+    top.assign(n * static_cast<size_t>(K), -2.0);
+    {
+      const auto [a, b] = latitude_range(buf, step, row.psi, sw.search_rad + 1e-9);
+      const double c = std::cos(std::min(pi, sw.search_rad + 1e-9));
+      for (int k = a; k < b; ++k) {
+        const int s = ord[k];
+        const SatAux& x = sx1[k];
+        const double h = row_half_width(row.sin_psi, row.cos_psi, x.sin_psi, x.cos_psi, c, true);
+        if (h < 0.0) continue;
+        const SatPos& q = sp1[s];
+        const auto near = [&](long i) {
+          ++acc.distance_tests;
+          insert_top(&top[static_cast<size_t>(i) * static_cast<size_t>(K)], K,
+                     cos_to(sw.geo[static_cast<size_t>(row.point[static_cast<size_t>(i)])], q));
+        };
+        if (h >= pi) {
+          for_row(row, near);
+        } else {
+          for_arc(row, x.lon - h, x.lon + h, false, false, near);
+        }
+      }
+    }
+    int mid = -1;
+    for (size_t i = 0; i < n; ++i) {
+      const size_t p = static_cast<size_t>(row.point[i]);
+      double* tp = &top[i * static_cast<size_t>(K)];
+      if (tp[K - 1] < sw.search_cos) {
+        ++acc.fallbacks;
+        if (mid < 0) {
+          const double* zs = &buf.by_lat_sin[buf.at(step, 0)];
+          mid = static_cast<int>(std::lower_bound(zs, zs + sw.T, row.sin_psi) - zs);
+        }
+        acc.distance_tests += nearest_by_latitude(sw.geo[p], buf, step, K, tp, mid);
+      }
+      double* wc = &sw.worst_cos[p * static_cast<size_t>(K)];
+      for (int k = 0; k < K; ++k) wc[k] = std::min(wc[k], tp[k]);
+    }
+  }
+}
+
+// Exhaustive mode: one point over the instants [c0, c1) of the buffer, every satellite at every instant.
+void scan_point(const Sweep& sw, size_t p, long c0, long c1, Partial& acc, std::vector<int>& fresh,
+                std::vector<Event>& events, std::vector<double>& top) {
+  const PositionBuffer& buf = sw.buf;
+  const PointGeo& pg = sw.geo[p];
+  PointState& ps = sw.state[p];
+  const PointSums sums = sw.sums(p);
+  const int K = sw.K;
+  double* wc = &sw.worst_cos[p * static_cast<size_t>(K)];
+  for (long step = c0; step < c1; ++step) {
+    fresh.clear();
+    std::fill(top.begin(), top.end(), -2.0);
+    double* tp = top.data();
+    const size_t base = buf.at(step, 0);
+    const SatPos* sp = &buf.pos[base];
+    for (int s = 0; s < sw.T; ++s) {
+      if (visible(pg, buf, base + static_cast<size_t>(s), sw.gm)) fresh.push_back(s);
+      insert_top(tp, K, cos_to(pg, sp[s]));
+    }
+    acc.pair_tests += sw.T;
+    acc.distance_tests += sw.T;
+    for (int k = 0; k < K; ++k) wc[k] = std::min(wc[k], tp[k]);
+    if (step == 0) {
+      start_timeline(ps, static_cast<int>(fresh.size()));
+    } else {
+      // Rises (in fresh, not in vis) and sets (in vis, not in fresh) inside (t_{j-1}, t_j].
+      events.clear();
+      size_t a = 0, b = 0;
+      while (a < ps.vis.size() || b < fresh.size()) {
+        if (b == fresh.size() || (a < ps.vis.size() && ps.vis[a] < fresh[b])) {
+          events.push_back({crossing_time(pg, buf, sw.smp, step, ps.vis[a], sw.gm), -1, 0});
+          ++a;
+        } else if (a == ps.vis.size() || fresh[b] < ps.vis[a]) {
+          events.push_back({crossing_time(pg, buf, sw.smp, step, fresh[b], sw.gm), +1, 0});
+          ++b;
+        } else {
+          ++a;
+          ++b;
+        }
+      }
+      std::sort(events.begin(), events.end(), event_before);
+      apply_events(ps, sums, events.data(), events.data() + events.size(), sw.smp.time(step - 1), sw.smp.time(step));
+      assert(ps.count == static_cast<int>(fresh.size()));
+    }
+    add_covered(acc, static_cast<size_t>(step - c0), K, 0, ps.count, sw.weight_q[p]);
+    ps.vis.swap(fresh);
+  }
 }
 
 }  // namespace
@@ -499,7 +922,7 @@ CoverageWorkEstimate estimate(const Design& design, const CoverageSettings& st, 
   e.pair_tests = e.point_steps * tests_per_point_step;
   const double gaps = std::min(passes, static_cast<double>(e.steps) / 2.0 + 1.0);
   const double per_point = 160.0 + 16.0 * st.max_fold + 8.0 * in_view_bins + 4.0 * gaps + 8.0 * std::max(1.0, cand);
-  const double chunk = mode == CoverageMode::exhaustive ? 0.0 : 4.0 * chunk_entry_budget + 64.0 * 4.0 * (static_cast<double>(points) + 1.0);
+  const double chunk = mode == CoverageMode::exhaustive ? 0.0 : culled_scratch_bytes + 64.0 * 4.0 * (static_cast<double>(points) + 1.0);
   e.memory_bytes = static_cast<double>(points) * per_point * 2.0 + chunk + 70.0 * st.satellites * 112.0;  // per satellite-instant: position, velocity, cull radius, latitude order
   e.seconds_2_cores = (3e-9 * e.pair_tests + 60e-9 * e.point_steps) / 2.0;
   return e;
@@ -543,41 +966,62 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
   const double theta0 = greenwich_mean_sidereal_angle_rad(julian_date(design.epoch));
 
   std::vector<PointGeo> geo(P);
-  double min_ground_radius = 1e300;
+  double total_weight = 0.0;
   for (size_t i = 0; i < P; ++i) {
     const GridPoint& g = grid.points[i];
     const Eigen::Vector3d u = g.r_km.normalized();
     geo[i] = {g.r_km.x(), g.r_km.y(), g.r_km.z(), g.up.x(), g.up.y(), g.up.z(), u.x(), u.y(), u.z()};
-    min_ground_radius = std::min(min_ground_radius, g.r_km.norm());
+    total_weight += g.area_weight;
   }
-  min_ground_radius = std::min(min_ground_radius, earth.radius_km * (1.0 - earth.flattening)) - 0.01;
-  const std::vector<Row> rows = exhaustive ? std::vector<Row>{} : build_rows(geo);
-  std::vector<double> row_psi;
-  for (const Row& r : rows) row_psi.push_back(r.psi);
+  std::vector<std::int64_t> weight_q(P);
+  std::int64_t total_q = 0;
+  for (size_t i = 0; i < P; ++i) {
+    weight_q[i] = total_weight > 0.0 ? std::llround(grid.points[i].area_weight / total_weight * weight_units) : 0;
+    total_q += weight_q[i];
+  }
+
+  const double mask_rad = st.spec.min_elevation_deg * rad_per_deg;
+  const std::optional<double> cone_rad =
+      st.spec.nadir_half_angle_deg ? std::optional<double>(*st.spec.nadir_half_angle_deg * rad_per_deg) : std::nullopt;
+  const std::vector<Row> rows = exhaustive ? std::vector<Row>{} : build_rows(geo, mask_rad, cone_rad);
+  // The widest outer footprint over all rows, for a satellite at radius r: the smallest ground radius and the
+  // largest deflection of any row.
+  double min_ground_radius = 1e300, max_deflection = 0.0;
+  for (const Row& r : rows) {
+    min_ground_radius = std::min(min_ground_radius, r.bounds.min_radius_km);
+    max_deflection = std::max(max_deflection, r.bounds.max_deflection_rad);
+  }
+  const auto reach_of = [&](double r_km) {
+    const double e = mask_rad - max_deflection;
+    const double x = min_ground_radius * std::cos(e) / r_km;
+    return x >= 1.0 ? 1e-6 : std::acos(x) - e + 1e-6;
+  };
 
   Geometry gm;
-  gm.sin_min = std::sin(st.spec.min_elevation_deg * rad_per_deg);
+  gm.sin_min = std::sin(mask_rad);
   gm.sin_min2 = gm.sin_min * gm.sin_min;
-  if (st.spec.nadir_half_angle_deg) {
+  if (cone_rad) {
     gm.cone = true;
-    gm.cos_cone = std::cos(*st.spec.nadir_half_angle_deg * rad_per_deg);
+    gm.cos_cone = std::cos(*cone_rad);
   }
-  const double radius_guess = radius_search_rad(K, T);
 
-  const double cand_est = std::max(1.0, est.pair_tests / std::max(1.0, est.point_steps));
-  const long chunk = exhaustive ? 64
-                                : std::clamp(static_cast<long>(chunk_entry_budget / (static_cast<double>(P) * cand_est)), 1L, 64L);
+  // Instants per chunk: 64, fewer when the satellite buffers would pass the budget.
+  const double bytes_per_instant = static_cast<double>(T) * (sizeof(SatPos) + sizeof(SatVel) + 3.0 * sizeof(SatAux) + 20.0);
+  const long chunk = std::clamp(static_cast<long>(buffer_budget_bytes / bytes_per_instant) - 1, 1L, exhaustive ? 64L : culled_chunk);
 
   std::vector<PointState> state(P);
   std::vector<double> at_least(P * static_cast<size_t>(K), 0.0), worst_cos(P * static_cast<size_t>(K), 2.0);
   std::vector<double> hist(P * in_view_bins, 0.0);
-  std::vector<double> worst_covered(static_cast<size_t>(K), 1e300);
-  std::int64_t pair_tests = 0, fallbacks = 0;
+  std::vector<std::int64_t> running(static_cast<size_t>(K), 0);
+  std::vector<std::int64_t> worst_q(static_cast<size_t>(K), std::numeric_limits<std::int64_t>::max());
+  std::int64_t pair_tests = 0, distance_tests = 0, fallbacks = 0;
 
   PositionBuffer buf;
   buf.sats = T;
-  std::vector<StepCandidates> cands(static_cast<size_t>(chunk));
+  const double search_rad = radius_search_rad(K, T);
+  const Sweep sw{buf, smp, gm, geo, weight_q, K, T, search_rad, std::cos(search_rad), state, at_least, worst_cos, hist};
 
+  tbb::enumerable_thread_specific<RowScratch> scratches;
   for (long c0 = 0; c0 < smp.n; c0 += chunk) {
     const long c1 = std::min(smp.n, c0 + chunk);
     buf.first = std::max<long>(0, c0 - 1);
@@ -586,19 +1030,20 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
     const size_t cells = static_cast<size_t>(buf.count) * static_cast<size_t>(T);
     buf.pos.resize(cells);
     buf.vel.resize(cells);
-    buf.cull_rad.resize(cells);
-    if (!exhaustive) {
-      buf.by_lat.resize(cells);
-      buf.by_lat_sin.resize(cells);
-      buf.by_lat_cos.resize(cells);
-    }
-    buf.guaranteed_cos.resize(static_cast<size_t>(buf.count));
+    buf.aux.resize(cells);
+    buf.by_lat.resize(cells);
+    buf.by_lat_sin.resize(cells);
+    buf.by_lat_cos.resize(cells);
+    buf.by_lat_aux.resize(cells);
+    buf.by_lat_prev.resize(cells);
+    buf.reach_rad.assign(static_cast<size_t>(buf.count), 0.0);
+    buf.moved_rad.assign(static_cast<size_t>(buf.count), 0.0);
     tbb::parallel_for(tbb::blocked_range<long>(0, buf.count), [&](const tbb::blocked_range<long>& r) {
       for (long l = r.begin(); l < r.end(); ++l) {
         const long step = buf.first + l;
         const double t = smp.time(step);
         const double theta = theta0 + earth.rotation_rad_s * t;
-        double guaranteed = pi;
+        double r_max = 0.0;
         for (int s = 0; s < T; ++s) {
           const StateVector sv = state_at(earth, orbits[static_cast<size_t>(s)], t);
           const Eigen::Vector3d r_ef = inertial_to_earth_fixed(sv.r_km, theta);
@@ -615,169 +1060,95 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
           // Earth-fixed velocity: v_ef = R3(theta) v_in - w x r_ef, with w = (0, 0, w_E) (rotating-frame kinematics).
           const Eigen::Vector3d v_ef = inertial_to_earth_fixed(v_in, theta) +
                                        Eigen::Vector3d(earth.rotation_rad_s * r_ef.y(), -earth.rotation_rad_s * r_ef.x(), 0.0);
+          const double uz = std::clamp(r_ef.z() / len, -1.0, 1.0);
           buf.pos[i] = {r_ef.x(), r_ef.y(), r_ef.z(), r_ef.x() / len, r_ef.y() / len, r_ef.z() / len};
           buf.vel[i] = {v_ef.x(), v_ef.y(), v_ef.z()};
-          buf.cull_rad[i] = std::max(visibility_cull_rad(len, min_ground_radius, st), radius_guess);
-          guaranteed = std::min(guaranteed, buf.cull_rad[i]);
+          buf.aux[i] = {uz, std::sqrt(1.0 - uz * uz), std::atan2(r_ef.y(), r_ef.x()), len};
+          r_max = std::max(r_max, len);
         }
-        buf.guaranteed_cos[static_cast<size_t>(l)] = std::cos(std::max(0.0, guaranteed - 1e-7));
-        if (!exhaustive) {
-          const size_t base = buf.at(step, 0);
-          int* ord = &buf.by_lat[base];
-          std::iota(ord, ord + T, 0);
-          std::sort(ord, ord + T, [&](int a, int b) {
-            const double za = buf.pos[base + static_cast<size_t>(a)].uz, zb = buf.pos[base + static_cast<size_t>(b)].uz;
-            return za != zb ? za < zb : a < b;
-          });
-          for (int k = 0; k < T; ++k) {
-            const double z = std::clamp(buf.pos[base + static_cast<size_t>(ord[k])].uz, -1.0, 1.0);
-            buf.by_lat_sin[base + static_cast<size_t>(k)] = z;
-            buf.by_lat_cos[base + static_cast<size_t>(k)] = std::sqrt(1.0 - z * z);
-          }
+        buf.reach_rad[static_cast<size_t>(l)] = exhaustive ? 0.0 : reach_of(r_max);
+        const size_t base = buf.at(step, 0);
+        int* ord = &buf.by_lat[base];
+        std::iota(ord, ord + T, 0);
+        std::sort(ord, ord + T, [&](int a, int b) {
+          const double za = buf.pos[base + static_cast<size_t>(a)].uz, zb = buf.pos[base + static_cast<size_t>(b)].uz;
+          return za != zb ? za < zb : a < b;
+        });
+        for (int k = 0; k < T; ++k) {
+          const SatAux& x = buf.aux[base + static_cast<size_t>(ord[k])];
+          buf.by_lat_sin[base + static_cast<size_t>(k)] = x.sin_psi;
+          buf.by_lat_cos[base + static_cast<size_t>(k)] = x.cos_psi;
+          buf.by_lat_aux[base + static_cast<size_t>(k)] = x;
         }
       }
     });
-    if (!exhaustive) {
-      tbb::parallel_for(tbb::blocked_range<long>(c0, c1, 1), [&](const tbb::blocked_range<long>& r) {
-        std::vector<Window> windows;
-        std::vector<int> window_sat;
-        std::vector<std::uint32_t> fill;
-        for (long step = r.begin(); step < r.end(); ++step)
-          build_candidates(buf, step, rows, row_psi, P, cands[static_cast<size_t>(step - c0)], windows, window_sat, fill);
-      });
-    }
+    // Largest change of latitude of any satellite since the previous instant, and the previous instant's data
+    // in this instant's latitude order (the first instant of the buffer has none before it in the buffer; it
+    // is only ever used as t_{j-1}).
+    tbb::parallel_for(tbb::blocked_range<long>(1, std::max(1L, buf.count)), [&](const tbb::blocked_range<long>& r) {
+      for (long l = r.begin(); l < r.end(); ++l) {
+        const long step = buf.first + l;
+        const size_t base = buf.at(step, 0);
+        double moved = 0.0;
+        for (int k = 0; k < T; ++k) {
+          const int s = buf.by_lat[base + static_cast<size_t>(k)];
+          const SatAux& x1 = buf.by_lat_aux[base + static_cast<size_t>(k)];
+          const SatAux& x0 = buf.aux[buf.at(step - 1, s)];
+          buf.by_lat_prev[base + static_cast<size_t>(k)] = x0;
+          moved = std::max(moved, std::abs(std::asin(x1.sin_psi) - std::asin(x0.sin_psi)));
+        }
+        buf.moved_rad[static_cast<size_t>(l)] = moved + 1e-9;
+      }
+    });
 
     const size_t nsteps = static_cast<size_t>(c1 - c0);
     Partial identity;
-    identity.covered.assign(nsteps * static_cast<size_t>(K), 0.0);
-    const Partial part = tbb::parallel_deterministic_reduce(
-        tbb::blocked_range<size_t>(0, P, 64), identity,
-        [&](const tbb::blocked_range<size_t>& range, Partial acc) {
-          std::vector<int> fresh;
-          std::vector<double> top(static_cast<size_t>(K));
-          std::vector<std::pair<double, int>> events;
-          for (size_t p = range.begin(); p < range.end(); ++p) {
-            const PointGeo& pg = geo[p];
-            PointState& ps = state[p];
-            double* al = &at_least[p * static_cast<size_t>(K)];
-            double* wc = &worst_cos[p * static_cast<size_t>(K)];
-            double* hi = &hist[p * in_view_bins];
-            const double w = grid.points[p].area_weight;
-            const auto integrate = [&](int c, double dt) {
-              if (dt <= 0.0) return;
-              ps.count_time += c * dt;
-              hi[std::min(c, in_view_bins - 1)] += dt;
-              for (int k = 0; k < std::min(c, K); ++k) al[k] += dt;
-            };
-            for (long step = c0; step < c1; ++step) {
-              fresh.clear();
-              std::fill(top.begin(), top.end(), -2.0);
-              double* tp = top.data();
-              const SatPos* sp = &buf.pos[buf.at(step, 0)];
-              const auto consider = [&](int s) {
-                ++acc.pair_tests;
-                if (visible(pg, buf, buf.at(step, s), gm)) fresh.push_back(s);
-                insert_top(tp, K, cos_to(pg, sp[s]));
-              };
-              if (exhaustive) {
-                for (int s = 0; s < T; ++s) consider(s);
-              } else {
-                const StepCandidates& sc = cands[static_cast<size_t>(step - c0)];
-                for (std::uint32_t k = sc.offset[p]; k < sc.offset[p + 1]; ++k) consider(sc.sats[k]);
-                if (tp[K - 1] < buf.guaranteed_cos[static_cast<size_t>(step - buf.first)]) {
-                  // The k-th nearest satellite lies beyond the cull radius: find it, exactly, among all satellites.
-                  // The central angle to a satellite is at least the difference of the geocentric latitudes, so its
-                  // cosine is at most cos psi_s cos psi_p + sin psi_s sin psi_p (spherical law of cosines). The
-                  // satellites are sorted by latitude, so the scan runs outward from the point's latitude and
-                  // stops on each side once that bound is below the k-th best cosine found (less 1e-12 for
-                  // rounding). The top-K values do not depend on the scan order, so this equals the full scan.
-                  ++acc.fallbacks;
-                  std::fill(top.begin(), top.end(), -2.0);
-                  const size_t base = buf.at(step, 0);
-                  const int* ord = &buf.by_lat[base];
-                  const double* zs = &buf.by_lat_sin[base];
-                  const double* cs = &buf.by_lat_cos[base];
-                  const double zp = std::clamp(pg.uz, -1.0, 1.0), cp = std::sqrt(1.0 - zp * zp);
-                  const int mid = static_cast<int>(std::lower_bound(zs, zs + T, zp) - zs);
-                  for (int k = mid; k < T; ++k) {
-                    if (cs[k] * cp + zs[k] * zp < tp[K - 1] - 1e-12) break;
-                    insert_top(tp, K, cos_to(pg, sp[ord[k]]));
-                  }
-                  for (int k = mid - 1; k >= 0; --k) {
-                    if (cs[k] * cp + zs[k] * zp < tp[K - 1] - 1e-12) break;
-                    insert_top(tp, K, cos_to(pg, sp[ord[k]]));
-                  }
-                }
-              }
-              for (int k = 0; k < K; ++k) wc[k] = std::min(wc[k], top[static_cast<size_t>(k)]);
-              if (step == 0) {
-                ps.count = static_cast<int>(fresh.size());
-                ps.max_in_view = ps.count;
-                if (ps.count == 0) {
-                  ps.in_gap = true;
-                  ps.gap_start = 0.0;
-                }
-              } else {
-                // Rises (in fresh, not in vis) and sets (in vis, not in fresh) inside (t_{j-1}, t_j].
-                events.clear();
-                size_t a = 0, b = 0;
-                while (a < ps.vis.size() || b < fresh.size()) {
-                  if (b == fresh.size() || (a < ps.vis.size() && ps.vis[a] < fresh[b])) {
-                    events.emplace_back(crossing_time(pg, buf, smp, step, ps.vis[a], gm), -1);
-                    ++a;
-                  } else if (a == ps.vis.size() || fresh[b] < ps.vis[a]) {
-                    events.emplace_back(crossing_time(pg, buf, smp, step, fresh[b], gm), +1);
-                    ++b;
-                  } else {
-                    ++a;
-                    ++b;
-                  }
-                }
-                // Rises before sets at equal times, so no zero-length gap is made.
-                if (events.size() > 1)
-                  std::sort(events.begin(), events.end(), [](const auto& x, const auto& y) {
-                    return x.first != y.first ? x.first < y.first : x.second > y.second;
-                  });
-                double cur = smp.time(step - 1);
-                for (const auto& [tau, delta] : events) {
-                  const double te = std::clamp(tau, cur, smp.time(step));
-                  integrate(ps.count, te - cur);
-                  cur = te;
-                  const int before = ps.count;
-                  ps.count += delta;
-                  ps.max_in_view = std::max(ps.max_in_view, ps.count);
-                  if (before == 0 && ps.count == 1 && ps.in_gap) {
-                    if (te - ps.gap_start > 0.0) ps.gaps.push_back(static_cast<float>(te - ps.gap_start));
-                    ps.in_gap = false;
-                  } else if (before == 1 && ps.count == 0) {
-                    ps.in_gap = true;
-                    ps.gap_start = te;
-                  }
-                }
-                integrate(ps.count, smp.time(step) - cur);
-                assert(ps.count == static_cast<int>(fresh.size()));
-              }
-              for (int k = 0; k < std::min(ps.count, K); ++k)
-                acc.covered[static_cast<size_t>(step - c0) * static_cast<size_t>(K) + static_cast<size_t>(k)] += w;
-              ps.vis.swap(fresh);
+    identity.covered.assign(nsteps * static_cast<size_t>(K), 0);
+    const auto join = [](Partial x, const Partial& y) {
+      for (size_t i = 0; i < x.covered.size(); ++i) x.covered[i] += y.covered[i];
+      x.pair_tests += y.pair_tests;
+      x.distance_tests += y.distance_tests;
+      x.fallbacks += y.fallbacks;
+      return x;
+    };
+    Partial part;
+    if (exhaustive) {
+      part = tbb::parallel_reduce(
+          tbb::blocked_range<size_t>(0, P, 64), identity,
+          [&](const tbb::blocked_range<size_t>& range, Partial acc) {
+            std::vector<int> fresh;
+            std::vector<Event> events;
+            std::vector<double> top(static_cast<size_t>(K));
+            for (size_t p = range.begin(); p < range.end(); ++p) scan_point(sw, p, c0, c1, acc, fresh, events, top);
+            if (options.progress) options.progress->fetch_add(static_cast<std::int64_t>(range.size()) * (c1 - c0));
+            return acc;
+          },
+          join);
+    } else {
+      part = tbb::parallel_reduce(
+          tbb::blocked_range<size_t>(0, rows.size(), 1), identity,
+          [&](const tbb::blocked_range<size_t>& range, Partial acc) {
+            RowScratch& scratch = scratches.local();
+            for (size_t r = range.begin(); r < range.end(); ++r) {
+              sweep_row(sw, rows[r], static_cast<long>(r), static_cast<long>(rows.size()), c0, c1, acc, scratch);
+              if (options.progress) options.progress->fetch_add(static_cast<std::int64_t>(rows[r].point.size()) * (c1 - c0));
             }
-          }
-          if (options.progress) options.progress->fetch_add(static_cast<std::int64_t>(range.size()) * (c1 - c0));
-          return acc;
-        },
-        [](Partial x, const Partial& y) {
-          for (size_t i = 0; i < x.covered.size(); ++i) x.covered[i] += y.covered[i];
-          x.pair_tests += y.pair_tests;
-          x.fallbacks += y.fallbacks;
-          return x;
-        });
+            return acc;
+          },
+          join);
+    }
     pair_tests += part.pair_tests;
+    distance_tests += part.distance_tests;
     fallbacks += part.fallbacks;
     for (size_t l = 0; l < nsteps; ++l)
-      for (int k = 0; k < K; ++k)
-        worst_covered[static_cast<size_t>(k)] =
-            std::min(worst_covered[static_cast<size_t>(k)], part.covered[l * static_cast<size_t>(K) + static_cast<size_t>(k)]);
+      for (int k = 0; k < K; ++k) {
+        const std::int64_t v = part.covered[l * static_cast<size_t>(K) + static_cast<size_t>(k)];
+        std::int64_t& run = running[static_cast<size_t>(k)];
+        run = exhaustive ? v : run + v;
+        worst_q[static_cast<size_t>(k)] = std::min(worst_q[static_cast<size_t>(k)], run);
+      }
   }
+  for (size_t p = 0; p < P; ++p) integrate(state[p], sw.sums(p), smp.span);
 
   // Per-point metrics.
   CoverageResult res;
@@ -794,6 +1165,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
   res.mode = options.mode;
   res.point_steps = static_cast<std::int64_t>(P) * smp.n;
   res.pair_tests = pair_tests;
+  res.distance_tests = distance_tests;
   res.radius_fallbacks = fallbacks;
   res.points.resize(P);
   res.required_radius_deg.assign(static_cast<size_t>(K), 0.0);
@@ -832,7 +1204,9 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
     for (int n = 0; n < in_view_bins; ++n)
       res.in_view_fraction[static_cast<size_t>(n)] += pc.point.area_weight * hist[p * in_view_bins + static_cast<size_t>(n)] / smp.span;
   }
-  for (int k = 0; k < K; ++k) res.worst_instant_covered_percent.push_back(100.0 * worst_covered[static_cast<size_t>(k)]);
+  for (int k = 0; k < K; ++k)
+    res.worst_instant_covered_percent.push_back(
+        total_q > 0 ? 100.0 * static_cast<double>(worst_q[static_cast<size_t>(k)]) / static_cast<double>(total_q) : 0.0);
 
   std::vector<size_t> all(P);
   std::iota(all.begin(), all.end(), 0);

@@ -74,6 +74,7 @@ struct CoverageResult {
   // Work done, for benchmarks and the progress line.
   std::int64_t point_steps = 0;             // grid points x sample instants
   std::int64_t pair_tests = 0;              // (satellite, point, instant) visibility tests
+  std::int64_t distance_tests = 0;          // (satellite, point, instant) central angles for the k-th nearest
   std::int64_t radius_fallbacks = 0;        // point-instants whose k-th nearest satellite lay beyond the cull radius
 };
 
