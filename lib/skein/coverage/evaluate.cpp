@@ -117,6 +117,7 @@ struct Geometry {
   double sin_min2 = 0.0;  // sin_min squared
   bool cone = false;
   double cos_cone = 0.0;
+  bool polynomial = false;  // crossing times on the polynomial form of the margin (no cone, mask >= 5 deg)
 };
 
 // Visibility margin of satellite s from point p at a buffered instant: sin(elevation) - sin(mask), and, with a
@@ -185,6 +186,22 @@ inline MarginTerms margin_terms(const PointGeo& p, const SatPos& q, const SatVel
   return r;
 }
 
+// Without a payload cone and with a mask of at least 5 deg, the margin is taken in the form of the visibility
+// test, G = (d.n)|d.n| - sin^2(mask) |d|^2, which has the same sign as sin(elevation) - sin(mask) and the same
+// zero, needs no root or division, and is smooth near the mask (its kink, at d.n = 0, is on the horizon, at
+// least 5 deg of elevation away). Rate: G' = 2 |d.n| (v.n) - 2 sin^2(mask) (d.v).
+struct PolynomialMargin {
+  double value, rate;
+};
+inline PolynomialMargin polynomial_margin(const PointGeo& p, const SatPos& q, const SatVel& w, const Geometry& g) {
+  const double dx = q.x - p.rx, dy = q.y - p.ry, dz = q.z - p.rz;
+  const double dn = dx * p.nx + dy * p.ny + dz * p.nz;
+  const double vn = w.vx * p.nx + w.vy * p.ny + w.vz * p.nz;
+  const double dv = dx * w.vx + dy * w.vy + dz * w.vz;
+  const double len2 = dx * dx + dy * dy + dz * dz;
+  return {dn * std::abs(dn) - g.sin_min2 * len2, 2.0 * std::abs(dn) * vn - 2.0 * g.sin_min2 * dv};
+}
+
 // Time of the sign change of the margin of (p, s) inside (t_{j-1}, t_j). The margin and its rate are evaluated
 // exactly at the two bracketing instants (from the buffered Earth-fixed positions and velocities, no new
 // orbit evaluation); between them the margin is replaced by the cubic Hermite interpolant of those four values
@@ -192,14 +209,26 @@ inline MarginTerms margin_terms(const PointGeo& p, const SatPos& q, const SatVel
 // is found by a safeguarded Newton iteration started at the secant root.
 double crossing_time(const PointGeo& p, const PositionBuffer& b, const Sampling& smp, long j, int s, const Geometry& g) {
   const double t0 = smp.time(j - 1), t1 = smp.time(j), h = t1 - t0;
-  const MarginTerms e0 = margin_terms(p, b.pos[b.at(j - 1, s)], b.vel[b.at(j - 1, s)], g);
-  const MarginTerms e1 = margin_terms(p, b.pos[b.at(j, s)], b.vel[b.at(j, s)], g);
-  // The margin is the smaller term. Follow the term that is the smaller one at the end out of view: it is the
-  // one that crosses zero, and it is smooth, whereas the minimum has a kink where the terms swap.
-  const MarginTerms& out = std::min(e0.mask, e0.cone) < std::min(e1.mask, e1.cone) ? e0 : e1;
-  const bool use_cone = out.cone < out.mask;
-  double f0 = use_cone ? e0.cone : e0.mask, d0 = use_cone ? e0.cone_rate : e0.mask_rate;
-  double f1 = use_cone ? e1.cone : e1.mask, d1 = use_cone ? e1.cone_rate : e1.mask_rate;
+  double f0, d0, f1, d1;
+  if (g.polynomial) {
+    const PolynomialMargin e0 = polynomial_margin(p, b.pos[b.at(j - 1, s)], b.vel[b.at(j - 1, s)], g);
+    const PolynomialMargin e1 = polynomial_margin(p, b.pos[b.at(j, s)], b.vel[b.at(j, s)], g);
+    f0 = e0.value;
+    d0 = e0.rate;
+    f1 = e1.value;
+    d1 = e1.rate;
+  } else {
+    const MarginTerms e0 = margin_terms(p, b.pos[b.at(j - 1, s)], b.vel[b.at(j - 1, s)], g);
+    const MarginTerms e1 = margin_terms(p, b.pos[b.at(j, s)], b.vel[b.at(j, s)], g);
+    // The margin is the smaller term. Follow the term that is the smaller one at the end out of view: it is the
+    // one that crosses zero, and it is smooth, whereas the minimum has a kink where the terms swap.
+    const MarginTerms& out = std::min(e0.mask, e0.cone) < std::min(e1.mask, e1.cone) ? e0 : e1;
+    const bool use_cone = out.cone < out.mask;
+    f0 = use_cone ? e0.cone : e0.mask;
+    d0 = use_cone ? e0.cone_rate : e0.mask_rate;
+    f1 = use_cone ? e1.cone : e1.mask;
+    d1 = use_cone ? e1.cone_rate : e1.mask_rate;
+  }
   if (f0 == 0.0) return t0;
   if ((f0 < 0.0) == (f1 < 0.0)) return 0.5 * (t0 + t1);  // not bracketed by rounding: take the midpoint
   // Power form in x = (t - t0) / h: c0 + c1 x + c2 x^2 + c3 x^3.
@@ -608,6 +637,20 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
   std::vector<int>& count = scratch.count;
   std::vector<double>& top = scratch.top;
   WindowCache& cache = scratch.cache;
+  // Footprint cosines of the last orbit radius seen on this row, made good for radii within 1 mm of it (the
+  // outer cosine of the largest radius, the inner of the smallest: both bounds shrink the safe side only,
+  // since both angles grow with the radius). Circular shells then compute them once per row.
+  constexpr double radius_tolerance_km = 1e-6;
+  double r_seen = -1.0;
+  FootprintCosines f_seen;
+  const auto cosines = [&](double r_km) {
+    if (std::abs(r_km - r_seen) > radius_tolerance_km) {
+      r_seen = r_km;
+      f_seen = {footprint_cosines(row.bounds, r_km + radius_tolerance_km).outer,
+                footprint_cosines(row.bounds, r_km - radius_tolerance_km).inner};
+    }
+    return f_seen;
+  };
   if (cache.key.size() != static_cast<size_t>(sw.T)) {
     cache.key.assign(static_cast<size_t>(sw.T), -1);
     cache.out.assign(static_cast<size_t>(sw.T), 0.0);
@@ -628,7 +671,7 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
         const int s = ord[k];
         const SatAux& x = sx1[k];
         const double h = row_half_width(row.sin_psi, row.cos_psi, x.sin_psi, x.cos_psi,
-                                        footprint_cosines(row.bounds, x.r_km).outer, true);
+                                        cosines(x.r_km).outer, true);
         if (h < 0.0) continue;
         const auto test = [&](long i) {
           ++acc.pair_tests;
@@ -657,8 +700,8 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
         const int s = ord[k];
         const SatAux& x1 = sx1[k];
         const SatAux& x0 = sx0[k];
-        const FootprintCosines f1 = footprint_cosines(row.bounds, x1.r_km);
-        const FootprintCosines f0 = x0.r_km == x1.r_km ? f1 : footprint_cosines(row.bounds, x0.r_km);
+        const FootprintCosines f1 = cosines(x1.r_km);
+        const FootprintCosines f0 = cosines(x0.r_km);
         const double h1o = row_half_width(row.sin_psi, row.cos_psi, x1.sin_psi, x1.cos_psi, f1.outer, true);
         // The window of t_{j-1}, from this row's previous instant when it was computed there.
         const size_t su = static_cast<size_t>(s);
@@ -1004,6 +1047,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
     gm.cone = true;
     gm.cos_cone = std::cos(*cone_rad);
   }
+  gm.polynomial = !gm.cone && st.spec.min_elevation_deg >= 5.0;
 
   // Instants per chunk: 64, fewer when the satellite buffers would pass the budget.
   const double bytes_per_instant = static_cast<double>(T) * (sizeof(SatPos) + sizeof(SatVel) + 3.0 * sizeof(SatAux) + 20.0);
