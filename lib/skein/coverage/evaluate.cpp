@@ -40,6 +40,8 @@
 namespace skein {
 namespace {
 
+// The largest fold K accepted (the YAML block and --fold both stop at 16).
+constexpr int max_fold_limit = 16;
 // Bins of the satellites-in-view distribution: 0 .. in_view_bins-2, and "in_view_bins-1 or more".
 constexpr int in_view_bins = 33;
 // The geodetic vertical departs from the geocentric radial by at most 0.1924 deg on WGS-84 (the largest
@@ -151,6 +153,19 @@ inline void insert_top(double* top, int K, double c) {
     --k;
   }
   top[k] = c;
+}
+
+// The same, keeping the satellite of each value alongside.
+inline void insert_top_sat(double* top, int* sat, int K, double c, int s) {
+  if (!(c > top[K - 1])) return;
+  int k = K - 1;
+  while (k > 0 && top[k - 1] < c) {
+    top[k] = top[k - 1];
+    sat[k] = sat[k - 1];
+    --k;
+  }
+  top[k] = c;
+  sat[k] = s;
 }
 
 inline double cos_to(const PointGeo& p, const SatPos& q) { return p.ux * q.ux + p.uy * q.uy + p.uz * q.uz; }
@@ -486,8 +501,9 @@ inline void sort_short(Event* begin, Event* end) {
 // k-th best cosine found (less 1e-12 for rounding). The top-K values do not depend on the scan order, so
 // this equals the full scan. `mid` is where the point's latitude falls in the sorted list (the scan stays exact
 // if it is off by satellites within rounding of that latitude). Returns the number of satellites looked at.
-long nearest_by_latitude(const PointGeo& pg, const PositionBuffer& buf, long step, int K, double* tp, int mid) {
+long nearest_by_latitude(const PointGeo& pg, const PositionBuffer& buf, long step, int K, double* tp, int* ts, int mid) {
   std::fill(tp, tp + K, -2.0);
+  std::fill(ts, ts + K, -1);
   const int T = buf.sats;
   const size_t base = buf.at(step, 0);
   const SatPos* sp = &buf.pos[base];
@@ -498,12 +514,12 @@ long nearest_by_latitude(const PointGeo& pg, const PositionBuffer& buf, long ste
   long looked = 0;
   for (int k = mid; k < T; ++k) {
     if (cs[k] * cp + zs[k] * zp < tp[K - 1] - 1e-12) break;
-    insert_top(tp, K, cos_to(pg, sp[ord[k]]));
+    insert_top_sat(tp, ts, K, cos_to(pg, sp[ord[k]]), ord[k]);
     ++looked;
   }
   for (int k = mid - 1; k >= 0; --k) {
     if (cs[k] * cp + zs[k] * zp < tp[K - 1] - 1e-12) break;
-    insert_top(tp, K, cos_to(pg, sp[ord[k]]));
+    insert_top_sat(tp, ts, K, cos_to(pg, sp[ord[k]]), ord[k]);
     ++looked;
   }
   return looked;
@@ -598,6 +614,7 @@ struct Sweep {
   std::vector<double>& at_least;
   std::vector<double>& worst_cos;
   std::vector<double>& hist;
+  std::vector<int>& nearest;  // culled mode: the K nearest satellites when the point was last searched (-1: never)
   PointSums sums(size_t p) const {
     return {&at_least[p * static_cast<size_t>(K)], &hist[p * in_view_bins], K};
   }
@@ -624,6 +641,8 @@ struct RowScratch {
   std::vector<std::uint32_t> start;
   std::vector<int> count;
   std::vector<double> top;
+  std::vector<int> top_sat;
+  std::vector<char> open;
   WindowCache cache;
 };
 
@@ -636,6 +655,8 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
   std::vector<std::uint32_t>& start = scratch.start;
   std::vector<int>& count = scratch.count;
   std::vector<double>& top = scratch.top;
+  std::vector<int>& top_sat = scratch.top_sat;
+  std::vector<char>& open = scratch.open;
   WindowCache& cache = scratch.cache;
   // Footprint cosines of the last orbit radius seen on this row, made good for radii within 1 mm of it (the
   // outer cosine of the largest radius, the inner of the smallest: both bounds shrink the safe side only,
@@ -789,9 +810,33 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
         }
       }
     }
-    // The K nearest satellites of each point: those inside the search cap first, then the exact scan where
-    // fewer than K lie there.
+    // The K nearest satellites of each point, for the required radius. Only the worst (smallest) k-th cosine
+    // over time is kept, so an instant matters only if it could lower it. First the satellites that were the
+    // K nearest when the point was last searched: the k-th largest of their cosines now is a lower bound of
+    // the k-th nearest's, so when it is at least the worst so far for every k, the instant cannot lower it
+    // and the point is settled. The other points look inside the search cap, then scan exactly where fewer
+    // than K lie there, and remember the K found.
     top.assign(n * static_cast<size_t>(K), -2.0);
+    top_sat.assign(n * static_cast<size_t>(K), -1);
+    open.assign(n, 1);
+    size_t open_points = n;
+    for (size_t i = 0; i < n; ++i) {
+      const size_t p = static_cast<size_t>(row.point[i]);
+      const int* nb = &sw.nearest[p * static_cast<size_t>(K)];
+      if (nb[0] < 0) continue;
+      double lower[max_fold_limit];
+      std::fill(lower, lower + K, -2.0);
+      for (int k = 0; k < K; ++k) insert_top(lower, K, cos_to(sw.geo[p], sp1[nb[k]]));
+      acc.distance_tests += K;
+      const double* wc = &sw.worst_cos[p * static_cast<size_t>(K)];
+      bool settled = true;
+      for (int k = 0; k < K; ++k) settled = settled && lower[k] >= wc[k];
+      if (settled) {
+        open[i] = 0;
+        --open_points;
+      }
+    }
+    if (open_points == 0) continue;
     {
       const auto [a, b] = latitude_range(buf, step, row.psi, sw.search_rad + 1e-9);
       const double c = std::cos(std::min(pi, sw.search_rad + 1e-9));
@@ -802,9 +847,10 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
         if (h < 0.0) continue;
         const SatPos& q = sp1[s];
         const auto near = [&](long i) {
+          if (!open[static_cast<size_t>(i)]) return;
           ++acc.distance_tests;
-          insert_top(&top[static_cast<size_t>(i) * static_cast<size_t>(K)], K,
-                     cos_to(sw.geo[static_cast<size_t>(row.point[static_cast<size_t>(i)])], q));
+          const size_t o = static_cast<size_t>(i) * static_cast<size_t>(K);
+          insert_top_sat(&top[o], &top_sat[o], K, cos_to(sw.geo[static_cast<size_t>(row.point[static_cast<size_t>(i)])], q), s);
         };
         if (h >= pi) {
           for_row(row, near);
@@ -815,16 +861,19 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
     }
     int mid = -1;
     for (size_t i = 0; i < n; ++i) {
+      if (!open[i]) continue;
       const size_t p = static_cast<size_t>(row.point[i]);
       double* tp = &top[i * static_cast<size_t>(K)];
+      int* ts = &top_sat[i * static_cast<size_t>(K)];
       if (tp[K - 1] < sw.search_cos) {
         ++acc.fallbacks;
         if (mid < 0) {
           const double* zs = &buf.by_lat_sin[buf.at(step, 0)];
           mid = static_cast<int>(std::lower_bound(zs, zs + sw.T, row.sin_psi) - zs);
         }
-        acc.distance_tests += nearest_by_latitude(sw.geo[p], buf, step, K, tp, mid);
+        acc.distance_tests += nearest_by_latitude(sw.geo[p], buf, step, K, tp, ts, mid);
       }
+      std::copy(ts, ts + K, &sw.nearest[p * static_cast<size_t>(K)]);
       double* wc = &sw.worst_cos[p * static_cast<size_t>(K)];
       for (int k = 0; k < K; ++k) wc[k] = std::min(wc[k], tp[k]);
     }
@@ -927,7 +976,7 @@ CoverageSettings resolve_coverage_settings(const Design& design, const CoverageO
   }
   st.satellites = static_cast<int>(expand_constellation(design).size());
   if (o.max_fold) {
-    if (*o.max_fold < 1 || *o.max_fold > 16) throw InputError(fmt::format("--fold {}: expected 1 to 16", *o.max_fold));
+    if (*o.max_fold < 1 || *o.max_fold > max_fold_limit) throw InputError(fmt::format("--fold {}: expected 1 to 16", *o.max_fold));
     if (*o.max_fold > st.satellites)
       throw InputError(fmt::format("--fold {}: the design has only {} satellites; expected a fold of at most {}",
                                    *o.max_fold, st.satellites, st.satellites));
@@ -1063,7 +1112,8 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
   PositionBuffer buf;
   buf.sats = T;
   const double search_rad = radius_search_rad(K, T);
-  const Sweep sw{buf, smp, gm, geo, weight_q, K, T, search_rad, std::cos(search_rad), state, at_least, worst_cos, hist};
+  std::vector<int> nearest(exhaustive ? 0 : P * static_cast<size_t>(K), -1);
+  const Sweep sw{buf, smp, gm, geo, weight_q, K, T, search_rad, std::cos(search_rad), state, at_least, worst_cos, hist, nearest};
 
   tbb::enumerable_thread_specific<RowScratch> scratches;
   for (long c0 = 0; c0 < smp.n; c0 += chunk) {

@@ -59,6 +59,7 @@ double row_half_width(double sin_r, double cos_r, double sin_s, double cos_s, do
   const double den = cos_r * cos_s;
   const double base = sin_r * sin_s;
   if (!(den > 0.0)) return base >= c ? pi : -1.0;  // a pole: the central angle does not depend on longitude
+  if (base + den < c) return -1.0;  // q > 1 without the division: even dlon = 0 is outside
   const double q = (c - base) / den;
   if (q > 1.0) return -1.0;
   if (q <= -1.0) return pi;
