@@ -1015,7 +1015,7 @@ CoverageWorkEstimate estimate(const Design& design, const CoverageSettings& st, 
   const double gaps = std::min(passes, static_cast<double>(e.steps) / 2.0 + 1.0);
   const double per_point = 160.0 + 16.0 * st.max_fold + 8.0 * in_view_bins + 4.0 * gaps + 8.0 * std::max(1.0, cand);
   const double chunk = mode == CoverageMode::exhaustive ? 0.0 : culled_scratch_bytes + 64.0 * 4.0 * (static_cast<double>(points) + 1.0);
-  e.memory_bytes = static_cast<double>(points) * per_point * 2.0 + chunk + 70.0 * st.satellites * 112.0;  // per satellite-instant: position, velocity, cull radius, latitude order
+  e.memory_bytes = static_cast<double>(points) * per_point * 2.0 + chunk + 70.0 * st.satellites * 112.0;  // satellite buffers, roughly
   e.seconds_2_cores = (3e-9 * e.pair_tests + 60e-9 * e.point_steps) / 2.0;
   return e;
 }
@@ -1098,7 +1098,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
   }
   gm.polynomial = !gm.cone && st.spec.min_elevation_deg >= 5.0;
 
-  // Instants per chunk: 64, fewer when the satellite buffers would pass the budget.
+  // Instants per chunk: 64 (exhaustive) or culled_chunk, fewer when the satellite buffers would pass the budget.
   const double bytes_per_instant = static_cast<double>(T) * (sizeof(SatPos) + sizeof(SatVel) + 3.0 * sizeof(SatAux) + 20.0);
   const long chunk = std::clamp(static_cast<long>(buffer_budget_bytes / bytes_per_instant) - 1, 1L, exhaustive ? 64L : culled_chunk);
 

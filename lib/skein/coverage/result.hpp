@@ -75,7 +75,7 @@ struct CoverageResult {
   std::int64_t point_steps = 0;             // grid points x sample instants
   std::int64_t pair_tests = 0;              // (satellite, point, instant) visibility tests
   std::int64_t distance_tests = 0;          // (satellite, point, instant) central angles for the k-th nearest
-  std::int64_t radius_fallbacks = 0;        // point-instants whose k-th nearest satellite lay beyond the cull radius
+  std::int64_t radius_fallbacks = 0;        // point-instants whose k-th nearest lay beyond the search cap (exact scan)
 };
 
 }  // namespace skein
