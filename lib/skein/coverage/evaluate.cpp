@@ -393,6 +393,16 @@ void for_row(const Row& row, F&& f) {
   for (long k = 0, n = static_cast<long>(row.lon.size()); k < n; ++k) f(k);
 }
 
+// Call f(i) for the row points within half-width h (rad, >= 0; >= pi: the whole row) of longitude lon.
+template <class F>
+void for_window(const Row& row, double lon, double h, F&& f) {
+  if (h >= pi) {
+    for_row(row, f);
+  } else {
+    for_arc(row, lon - h, lon + h, false, false, f);
+  }
+}
+
 // The central angle inside which the k-th nearest satellite is searched first: twice the radius of a cap
 // holding K/T of the sphere, so about 4K satellites lie there when they are spread evenly (common practice
 // for sizing a search; only speed depends on it, not the result: fewer than K there means an exact scan).
@@ -699,11 +709,7 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
           if (visible(sw.geo[static_cast<size_t>(row.point[static_cast<size_t>(i)])], buf, buf.at(step, s), sw.gm))
             ++count[static_cast<size_t>(i)];
         };
-        if (h >= pi) {
-          for_row(row, test);
-        } else {
-          for_arc(row, x.lon - h, x.lon + h, false, false, test);
-        }
+        for_window(row, x.lon, h, test);
       }
       for (size_t i = 0; i < n; ++i) {
         const size_t p = static_cast<size_t>(row.point[i]);
@@ -852,11 +858,7 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
           const size_t o = static_cast<size_t>(i) * static_cast<size_t>(K);
           insert_top_sat(&top[o], &top_sat[o], K, cos_to(sw.geo[static_cast<size_t>(row.point[static_cast<size_t>(i)])], q), s);
         };
-        if (h >= pi) {
-          for_row(row, near);
-        } else {
-          for_arc(row, x.lon - h, x.lon + h, false, false, near);
-        }
+        for_window(row, x.lon, h, near);
       }
     }
     int mid = -1;
