@@ -208,13 +208,24 @@ inline MarginTerms margin_terms(const PointGeo& p, const SatPos& q, const SatVel
 struct PolynomialMargin {
   double value, rate;
 };
-inline PolynomialMargin polynomial_margin(const PointGeo& p, const SatPos& q, const SatVel& w, const Geometry& g) {
+// The value alone, with what the rate needs: the line of sight d and d.n. Its sign is the visibility test's.
+struct PolynomialValue {
+  double value, dx, dy, dz, dn;
+};
+inline PolynomialValue polynomial_value(const PointGeo& p, const SatPos& q, const Geometry& g) {
   const double dx = q.x - p.rx, dy = q.y - p.ry, dz = q.z - p.rz;
   const double dn = dx * p.nx + dy * p.ny + dz * p.nz;
-  const double vn = w.vx * p.nx + w.vy * p.ny + w.vz * p.nz;
-  const double dv = dx * w.vx + dy * w.vy + dz * w.vz;
   const double len2 = dx * dx + dy * dy + dz * dz;
-  return {dn * std::abs(dn) - g.sin_min2 * len2, 2.0 * std::abs(dn) * vn - 2.0 * g.sin_min2 * dv};
+  return {dn * std::abs(dn) - g.sin_min2 * len2, dx, dy, dz, dn};
+}
+inline double polynomial_rate(const PointGeo& p, const PolynomialValue& e, const SatVel& w, const Geometry& g) {
+  const double vn = w.vx * p.nx + w.vy * p.ny + w.vz * p.nz;
+  const double dv = e.dx * w.vx + e.dy * w.vy + e.dz * w.vz;
+  return 2.0 * std::abs(e.dn) * vn - 2.0 * g.sin_min2 * dv;
+}
+inline PolynomialMargin polynomial_margin(const PointGeo& p, const SatPos& q, const SatVel& w, const Geometry& g) {
+  const PolynomialValue e = polynomial_value(p, q, g);
+  return {e.value, polynomial_rate(p, e, w, g)};
 }
 
 // Time of the sign change of the margin of (p, s) inside (t_{j-1}, t_j). The margin and its rate are evaluated
@@ -222,8 +233,10 @@ inline PolynomialMargin polynomial_margin(const PointGeo& p, const SatPos& q, co
 // orbit evaluation); between them the margin is replaced by the cubic Hermite interpolant of those four values
 // (error h^4 max|f''''| / 384 for a step h; C. de Boor, "A Practical Guide to Splines", 1978, ch. II). Its root
 // is found by a safeguarded Newton iteration started at the secant root.
+double hermite_root(double f0, double d0, double f1, double d1, double t0, double t1);
+
 double crossing_time(const PointGeo& p, const PositionBuffer& b, const Sampling& smp, long j, int s, const Geometry& g) {
-  const double t0 = smp.time(j - 1), t1 = smp.time(j), h = t1 - t0;
+  const double t0 = smp.time(j - 1), t1 = smp.time(j);
   double f0, d0, f1, d1;
   if (g.polynomial) {
     const PolynomialMargin e0 = polynomial_margin(p, b.pos[b.at(j - 1, s)], b.vel[b.at(j - 1, s)], g);
@@ -244,6 +257,12 @@ double crossing_time(const PointGeo& p, const PositionBuffer& b, const Sampling&
     f1 = use_cone ? e1.cone : e1.mask;
     d1 = use_cone ? e1.cone_rate : e1.mask_rate;
   }
+  return hermite_root(f0, d0, f1, d1, t0, t1);
+}
+
+// The root in (t0, t1) of the cubic Hermite interpolant of margin values f0, f1 and rates d0, d1 (1/s).
+double hermite_root(double f0, double d0, double f1, double d1, double t0, double t1) {
+  const double h = t1 - t0;
   if (f0 == 0.0) return t0;
   if ((f0 < 0.0) == (f1 < 0.0)) return 0.5 * (t0 + t1);  // not bracketed by rounding: take the midpoint
   // Power form in x = (t - t0) / h: c0 + c1 x + c2 x^2 + c3 x^3.
@@ -774,6 +793,19 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
           const size_t p = static_cast<size_t>(row.point[static_cast<size_t>(i)]);
           const PointGeo& pg = sw.geo[p];
           acc.pair_tests += 2;
+          if (sw.gm.polynomial) {
+            // The visibility test and the crossing share the margin's value: its sign is visible()'s, and its
+            // numbers are those crossing_time computes, so exhaustive mode finds the same times.
+            const PolynomialValue e1 = polynomial_value(pg, buf.pos[i1], sw.gm);
+            const PolynomialValue e0 = polynomial_value(pg, buf.pos[i0], sw.gm);
+            const bool v1 = e1.value >= 0.0, v0 = e0.value >= 0.0;
+            if (v1 != v0)
+              events.push_back({hermite_root(e0.value, polynomial_rate(pg, e0, buf.vel[i0], sw.gm), e1.value,
+                                             polynomial_rate(pg, e1, buf.vel[i1], sw.gm), sw.smp.time(step - 1),
+                                             sw.smp.time(step)),
+                                v1 ? 1 : -1, static_cast<std::uint32_t>(i)});
+            return;
+          }
           const bool v1 = visible(pg, buf, i1, sw.gm), v0 = visible(pg, buf, i0, sw.gm);
           if (v1 != v0)
             events.push_back({crossing_time(pg, buf, sw.smp, step, s, sw.gm), v1 ? 1 : -1, static_cast<std::uint32_t>(i)});
