@@ -105,9 +105,9 @@ struct PositionBuffer {
   // Per instant: the largest outer footprint angle of any satellite over any row, and the largest change of a
   // satellite's geocentric latitude since the previous instant (both rad).
   std::vector<double> reach_rad, moved_rad;
-  // Per instant, the satellites sorted by geocentric latitude: index, sin and cos of the latitude.
+  // Culled mode only: per instant, the satellites sorted by geocentric latitude.
   std::vector<int> by_lat;
-  std::vector<double> by_lat_sin, by_lat_cos;
+  std::vector<double> by_lat_sin;   // sin of the latitude, same order (contiguous for the binary searches)
   std::vector<SatAux> by_lat_aux;   // aux in the same order
   std::vector<SatAux> by_lat_prev;  // aux of the previous instant, same order (unset for the buffer's first)
   size_t at(long step, int s) const { return static_cast<size_t>((step - first) * sats + s); }
@@ -538,16 +538,16 @@ long nearest_by_latitude(const PointGeo& pg, const PositionBuffer& buf, long ste
   const SatPos* sp = &buf.pos[base];
   const int* ord = &buf.by_lat[base];
   const double* zs = &buf.by_lat_sin[base];
-  const double* cs = &buf.by_lat_cos[base];
+  const SatAux* xs = &buf.by_lat_aux[base];
   const double zp = std::clamp(pg.uz, -1.0, 1.0), cp = std::sqrt(1.0 - zp * zp);
   long looked = 0;
   for (int k = mid; k < T; ++k) {
-    if (cs[k] * cp + zs[k] * zp < tp[K - 1] - 1e-12) break;
+    if (xs[k].cos_psi * cp + zs[k] * zp < tp[K - 1] - 1e-12) break;
     insert_top_sat(tp, ts, K, cos_to(pg, sp[ord[k]]), ord[k]);
     ++looked;
   }
   for (int k = mid - 1; k >= 0; --k) {
-    if (cs[k] * cp + zs[k] * zp < tp[K - 1] - 1e-12) break;
+    if (xs[k].cos_psi * cp + zs[k] * zp < tp[K - 1] - 1e-12) break;
     insert_top_sat(tp, ts, K, cos_to(pg, sp[ord[k]]), ord[k]);
     ++looked;
   }
@@ -1159,11 +1159,12 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
     buf.pos.resize(cells);
     buf.vel.resize(cells);
     buf.aux.resize(cells);
-    buf.by_lat.resize(cells);
-    buf.by_lat_sin.resize(cells);
-    buf.by_lat_cos.resize(cells);
-    buf.by_lat_aux.resize(cells);
-    buf.by_lat_prev.resize(cells);
+    if (!exhaustive) {
+      buf.by_lat.resize(cells);
+      buf.by_lat_sin.resize(cells);
+      buf.by_lat_aux.resize(cells);
+      buf.by_lat_prev.resize(cells);
+    }
     buf.reach_rad.assign(static_cast<size_t>(buf.count), 0.0);
     buf.moved_rad.assign(static_cast<size_t>(buf.count), 0.0);
     tbb::parallel_for(tbb::blocked_range<long>(0, buf.count), [&](const tbb::blocked_range<long>& r) {
@@ -1194,7 +1195,8 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
           buf.aux[i] = {uz, std::sqrt(1.0 - uz * uz), std::atan2(r_ef.y(), r_ef.x()), len};
           r_max = std::max(r_max, len);
         }
-        buf.reach_rad[static_cast<size_t>(l)] = exhaustive ? 0.0 : reach_of(r_max);
+        if (exhaustive) continue;  // the latitude order below serves the row sweep only
+        buf.reach_rad[static_cast<size_t>(l)] = reach_of(r_max);
         const size_t base = buf.at(step, 0);
         int* ord = &buf.by_lat[base];
         std::iota(ord, ord + T, 0);
@@ -1205,7 +1207,6 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
         for (int k = 0; k < T; ++k) {
           const SatAux& x = buf.aux[base + static_cast<size_t>(ord[k])];
           buf.by_lat_sin[base + static_cast<size_t>(k)] = x.sin_psi;
-          buf.by_lat_cos[base + static_cast<size_t>(k)] = x.cos_psi;
           buf.by_lat_aux[base + static_cast<size_t>(k)] = x;
         }
       }
@@ -1213,7 +1214,8 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
     // Largest change of latitude of any satellite since the previous instant, and the previous instant's data
     // in this instant's latitude order (the first instant of the buffer has none before it in the buffer; it
     // is only ever used as t_{j-1}).
-    tbb::parallel_for(tbb::blocked_range<long>(1, std::max(1L, buf.count)), [&](const tbb::blocked_range<long>& r) {
+    if (!exhaustive)
+      tbb::parallel_for(tbb::blocked_range<long>(1, std::max(1L, buf.count)), [&](const tbb::blocked_range<long>& r) {
       for (long l = r.begin(); l < r.end(); ++l) {
         const long step = buf.first + l;
         const size_t base = buf.at(step, 0);
