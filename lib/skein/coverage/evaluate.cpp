@@ -23,7 +23,7 @@
 // How the evaluation runs (both modes give the same numbers, to the bit):
 //  - Satellite positions and velocities are computed for a chunk of sample instants at a time.
 //  - Each ground point keeps a timeline: the number of satellites in view changes only at a rise or a set,
-//    whose time inside the step is refined (crossing_time); the time integrals of the metrics are taken
+//    whose time inside the step is refined (CrossingBatch, hermite_root); the time integrals of the metrics are taken
 //    between those events. A rise or set of (point, satellite) inside (t_{j-1}, t_j] is a pair whose exact
 //    visibility test differs at t_{j-1} and t_j.
 //  - Exhaustive mode tests every pair at every instant and finds the events by comparing the lists of
@@ -228,64 +228,70 @@ inline PolynomialMargin polynomial_margin(const PointGeo& p, const SatPos& q, co
   return {e.value, polynomial_rate(p, e, w, g)};
 }
 
-// Time of the sign change of the margin of (p, s) inside (t_{j-1}, t_j). The margin and its rate are evaluated
-// exactly at the two bracketing instants (from the buffered Earth-fixed positions and velocities, no new
-// orbit evaluation); between them the margin is replaced by the cubic Hermite interpolant of those four values
-// (error h^4 max|f''''| / 384 for a step h; C. de Boor, "A Practical Guide to Splines", 1978, ch. II). Its root
-// is found by a safeguarded Newton iteration started at the secant root.
-double hermite_root(double f0, double d0, double f1, double d1, double t0, double t1);
-
-double crossing_time(const PointGeo& p, const PositionBuffer& b, const Sampling& smp, long j, int s, const Geometry& g) {
-  const double t0 = smp.time(j - 1), t1 = smp.time(j);
+// Margin values and rates (1/s) of one pair at the two instants t_{j-1}, t_j that bracket its rise or set.
+struct Bracket {
   double f0, d0, f1, d1;
+};
+
+// The bracket of (p, s) over (t_{j-1}, t_j]: the margin and its rate evaluated exactly at the two instants
+// (from the buffered Earth-fixed positions and velocities, no new orbit evaluation).
+Bracket crossing_bracket(const PointGeo& p, const PositionBuffer& b, long j, int s, const Geometry& g) {
   if (g.polynomial) {
     const PolynomialMargin e0 = polynomial_margin(p, b.pos[b.at(j - 1, s)], b.vel[b.at(j - 1, s)], g);
     const PolynomialMargin e1 = polynomial_margin(p, b.pos[b.at(j, s)], b.vel[b.at(j, s)], g);
-    f0 = e0.value;
-    d0 = e0.rate;
-    f1 = e1.value;
-    d1 = e1.rate;
-  } else {
-    const MarginTerms e0 = margin_terms(p, b.pos[b.at(j - 1, s)], b.vel[b.at(j - 1, s)], g);
-    const MarginTerms e1 = margin_terms(p, b.pos[b.at(j, s)], b.vel[b.at(j, s)], g);
-    // The margin is the smaller term. Follow the term that is the smaller one at the end out of view: it is the
-    // one that crosses zero, and it is smooth, whereas the minimum has a kink where the terms swap.
-    const MarginTerms& out = std::min(e0.mask, e0.cone) < std::min(e1.mask, e1.cone) ? e0 : e1;
-    const bool use_cone = out.cone < out.mask;
-    f0 = use_cone ? e0.cone : e0.mask;
-    d0 = use_cone ? e0.cone_rate : e0.mask_rate;
-    f1 = use_cone ? e1.cone : e1.mask;
-    d1 = use_cone ? e1.cone_rate : e1.mask_rate;
+    return {e0.value, e0.rate, e1.value, e1.rate};
   }
-  return hermite_root(f0, d0, f1, d1, t0, t1);
+  const MarginTerms e0 = margin_terms(p, b.pos[b.at(j - 1, s)], b.vel[b.at(j - 1, s)], g);
+  const MarginTerms e1 = margin_terms(p, b.pos[b.at(j, s)], b.vel[b.at(j, s)], g);
+  // The margin is the smaller term. Follow the term that is the smaller one at the end out of view: it is the
+  // one that crosses zero, and it is smooth, whereas the minimum has a kink where the terms swap.
+  const MarginTerms& out = std::min(e0.mask, e0.cone) < std::min(e1.mask, e1.cone) ? e0 : e1;
+  const bool use_cone = out.cone < out.mask;
+  return {use_cone ? e0.cone : e0.mask, use_cone ? e0.cone_rate : e0.mask_rate, use_cone ? e1.cone : e1.mask,
+          use_cone ? e1.cone_rate : e1.mask_rate};
 }
 
-// The root in (t0, t1) of the cubic Hermite interpolant of margin values f0, f1 and rates d0, d1 (1/s).
+// Time of the sign change of a bracket inside (t0, t1). Between the two instants the margin is replaced by the
+// cubic Hermite interpolant of its four values (error h^4 max|f''''| / 384 for a step h; C. de Boor, "A
+// Practical Guide to Splines", 1978, ch. II). Its root is found by two Newton steps from the secant root
+// (newton_from_secant), or, where those do not settle, by a safeguarded Newton iteration.
+double hermite_root(double f0, double d0, double f1, double d1, double t0, double t1);
+
+// The fast path of hermite_root, in x = (t - t0) / h: two plain Newton steps on the power form
+// c0 + c1 x + c2 x^2 + c3 x^3 of the interpolant, from the secant root. Returns x and sets the second step.
+// It has no branches, so a batch of these runs as independent chains (CrossingBatch::solve).
+inline double newton_from_secant(double f0, double d0, double f1, double d1, double h, double& step) {
+  const double c0 = f0, c1 = h * d0, c2 = 3.0 * (f1 - f0) - h * (2.0 * d0 + d1), c3 = 2.0 * (f0 - f1) + h * (d0 + d1);
+  const double xa = f0 / (f0 - f1);
+  const double xb = xa - (c0 + xa * (c1 + xa * (c2 + xa * c3))) / (c1 + xa * (2.0 * c2 + xa * 3.0 * c3));
+  step = (c0 + xb * (c1 + xb * (c2 + xb * c3))) / (c1 + xb * (2.0 * c2 + xb * 3.0 * c3));
+  return xb - step;
+}
+
+// The fast path's result is kept when the bracket is proper (f0 non-zero, signs differ), the result stays
+// inside the step and the second step moved it by less than 1e-3 of the interval, so the error left is of the
+// order of the square of that, about 1e-6 of the interval (quadratic convergence), under the interpolation
+// residual.
+inline bool fast_root_accepted(double f0, double f1, double x, double step) {
+  return f0 != 0.0 && (f0 < 0.0) != (f1 < 0.0) && x > 0.0 && x < 1.0 && std::abs(step) < 1e-3;
+}
+
 double hermite_root(double f0, double d0, double f1, double d1, double t0, double t1) {
   const double h = t1 - t0;
   if (f0 == 0.0) return t0;
   if ((f0 < 0.0) == (f1 < 0.0)) return 0.5 * (t0 + t1);  // not bracketed by rounding: take the midpoint
-  // Power form in x = (t - t0) / h: c0 + c1 x + c2 x^2 + c3 x^3.
-  const double c0 = f0, c1 = h * d0, c2 = 3.0 * (f1 - f0) - h * (2.0 * d0 + d1), c3 = 2.0 * (f0 - f1) + h * (d0 + d1);
-  const double x_secant = f0 / (f0 - f1);
   {
-    // Fast path: two plain Newton steps from the secant root. Kept when the result stays inside the step and
-    // the second step moved it by less than 1e-3 of the interval, so the error left is of the order of the
-    // square of that, about 1e-6 of the interval (quadratic convergence), under the interpolation residual.
-    double x = x_secant, dx = 0.0;
-    for (int it = 0; it < 2; ++it) {
-      const double v = c0 + x * (c1 + x * (c2 + x * c3));
-      const double dv = c1 + x * (2.0 * c2 + x * 3.0 * c3);
-      dx = v / dv;
-      x -= dx;
-    }
-    if (x > 0.0 && x < 1.0 && std::abs(dx) < 1e-3) return t0 + x * h;
+    double step = 0.0;
+    const double x = newton_from_secant(f0, d0, f1, d1, h, step);
+    if (fast_root_accepted(f0, f1, x, step)) return t0 + x * h;
   }
+  const double c0 = f0, c1 = h * d0, c2 = 3.0 * (f1 - f0) - h * (2.0 * d0 + d1), c3 = 2.0 * (f0 - f1) + h * (d0 + d1);
   double a = 0.0, bb = 1.0;
   const bool fb_negative = f1 < 0.0;
-  double x = x_secant;
-  // Newton steps; the bracket [a, bb] is kept, and a step leaving it is replaced by bisection. Stops after a
-  // Newton step below 1e-4 of the interval, which leaves an error far under the interpolation residual.
+  double x = f0 / (f0 - f1);
+  // Newton steps from the secant root; the bracket [a, bb] is kept, and a step leaving it is replaced by
+  // bisection. Stops after a Newton step below 1e-4 of the interval, which leaves an error far under the
+  // interpolation residual.
   for (int it = 0; it < 12; ++it) {
     const double v = c0 + x * (c1 + x * (c2 + x * c3));
     const double dv = c1 + x * (2.0 * c2 + x * 3.0 * c3);
@@ -305,6 +311,54 @@ double hermite_root(double f0, double d0, double f1, double d1, double t0, doubl
   }
   return t0 + x * h;
 }
+
+// A rise (+1) or set (-1) of one satellite seen from one point, at time t (s).
+struct Event {
+  double t;
+  int delta;
+  std::uint32_t point;  // index within the row (culled mode)
+};
+
+// The rises and sets found in one step (t0, t1], with their brackets in columns. solve() finds their times
+// together: first the fast root of every bracket in one loop without branches, so that the division chains
+// of different brackets overlap, then one by one the few brackets the fast root does not settle. Each time is
+// the one hermite_root gives for its bracket, to the bit.
+struct CrossingBatch {
+  size_t n = 0;
+  std::vector<double> f0, d0, f1, d1, x, step;
+  std::vector<Event> event;  // event[k] belongs to bracket k; its time is set by solve()
+
+  void clear() { n = 0; }
+  void add(const Bracket& b, int delta, std::uint32_t point) {
+    if (n == event.size()) grow();
+    f0[n] = b.f0;
+    d0[n] = b.d0;
+    f1[n] = b.f1;
+    d1[n] = b.d1;
+    event[n] = {0.0, delta, point};
+    ++n;
+  }
+  void solve(double t0, double t1) {
+    const double h = t1 - t0;
+    const double* __restrict a0 = f0.data();
+    const double* __restrict r0 = d0.data();
+    const double* __restrict a1 = f1.data();
+    const double* __restrict r1 = d1.data();
+    double* __restrict xs = x.data();
+    double* __restrict st = step.data();
+    for (size_t k = 0; k < n; ++k) xs[k] = newton_from_secant(a0[k], r0[k], a1[k], r1[k], h, st[k]);
+    for (size_t k = 0; k < n; ++k)
+      event[k].t = fast_root_accepted(a0[k], a1[k], xs[k], st[k]) ? t0 + xs[k] * h
+                                                                  : hermite_root(a0[k], r0[k], a1[k], r1[k], t0, t1);
+  }
+
+ private:
+  void grow() {
+    const size_t m = std::max<size_t>(256, 2 * event.size());
+    for (std::vector<double>* v : {&f0, &d0, &f1, &d1, &x, &step}) v->resize(m);
+    event.resize(m);
+  }
+};
 
 // Grid rows for footprint culling: points of one geocentric latitude, sorted by longitude.
 struct Row {
@@ -439,12 +493,6 @@ double visibility_cull_rad(double r_km, double min_ground_radius_km, const Cover
   return std::acos(c) - eps + cull_margin_rad;
 }
 
-// A rise (+1) or set (-1) of one satellite seen from one point, at time t (s).
-struct Event {
-  double t;
-  int delta;
-  std::uint32_t point;  // index within the row (culled mode)
-};
 inline bool event_before(const Event& x, const Event& y) {
   // Rises before sets at equal times, so no zero-length gap is made.
   return x.t != y.t ? x.t < y.t : x.delta > y.delta;
@@ -666,7 +714,8 @@ struct WindowCache {
 
 // Scratch of one worker thread in culled mode, kept across rows and chunks.
 struct RowScratch {
-  std::vector<Event> events, sorted;
+  CrossingBatch crossings;
+  std::vector<Event> sorted;
   std::vector<std::uint32_t> start;
   std::vector<int> count;
   std::vector<double> top;
@@ -679,7 +728,7 @@ struct RowScratch {
 void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0, long c1, Partial& acc,
                RowScratch& scratch) {
   const PositionBuffer& buf = sw.buf;
-  std::vector<Event>& events = scratch.events;
+  CrossingBatch& crossings = scratch.crossings;
   std::vector<Event>& sorted = scratch.sorted;
   std::vector<std::uint32_t>& start = scratch.start;
   std::vector<int>& count = scratch.count;
@@ -737,7 +786,7 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
       }
     } else {
       // Rises and sets inside (t_{j-1}, t_j].
-      events.clear();
+      crossings.clear();
       const SatAux* sx0 = &buf.by_lat_prev[buf.at(step, 0)];
       const double reach = std::max(buf.reach_rad[buf.local(step)],
                                     buf.reach_rad[buf.local(step - 1)] + buf.moved_rad[buf.local(step)]);
@@ -795,20 +844,18 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
           acc.pair_tests += 2;
           if (sw.gm.polynomial) {
             // The visibility test and the crossing share the margin's value: its sign is visible()'s, and its
-            // numbers are those crossing_time computes, so exhaustive mode finds the same times.
+            // numbers are those crossing_bracket computes, so exhaustive mode finds the same times.
             const PolynomialValue e1 = polynomial_value(pg, buf.pos[i1], sw.gm);
             const PolynomialValue e0 = polynomial_value(pg, buf.pos[i0], sw.gm);
             const bool v1 = e1.value >= 0.0, v0 = e0.value >= 0.0;
             if (v1 != v0)
-              events.push_back({hermite_root(e0.value, polynomial_rate(pg, e0, buf.vel[i0], sw.gm), e1.value,
-                                             polynomial_rate(pg, e1, buf.vel[i1], sw.gm), sw.smp.time(step - 1),
-                                             sw.smp.time(step)),
-                                v1 ? 1 : -1, static_cast<std::uint32_t>(i)});
+              crossings.add({e0.value, polynomial_rate(pg, e0, buf.vel[i0], sw.gm), e1.value,
+                             polynomial_rate(pg, e1, buf.vel[i1], sw.gm)},
+                            v1 ? 1 : -1, static_cast<std::uint32_t>(i));
             return;
           }
           const bool v1 = visible(pg, buf, i1, sw.gm), v0 = visible(pg, buf, i0, sw.gm);
-          if (v1 != v0)
-            events.push_back({crossing_time(pg, buf, sw.smp, step, s, sw.gm), v1 ? 1 : -1, static_cast<std::uint32_t>(i)});
+          if (v1 != v0) crossings.add(crossing_bracket(pg, buf, step, s, sw.gm), v1 ? 1 : -1, static_cast<std::uint32_t>(i));
         };
         if (uhi - ulo >= two_pi) {
           if (inner) {
@@ -823,15 +870,18 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
           for_arc(row, x1.lon + ulo, x1.lon + uhi, false, false, test);
         }
       }
-      if (!events.empty()) {
-        // Group the events by point (a counting sort, stable), then order each point's few events in time.
-        start.assign(n + 1, 0);
-        for (const Event& e : events) ++start[e.point + 1];
-        for (size_t i = 0; i < n; ++i) start[i + 1] += start[i];
-        sorted.resize(events.size());
-        for (const Event& e : events) sorted[start[e.point]++] = e;
-        // start[i] is now the end of point i's run.
+      if (crossings.n > 0) {
         const double t0 = sw.smp.time(step - 1), t1 = sw.smp.time(step);
+        crossings.solve(t0, t1);
+        // Group the events by point (a counting sort, stable), then order each point's few events in time.
+        const Event* events = crossings.event.data();
+        const Event* events_end = events + crossings.n;
+        start.assign(n + 1, 0);
+        for (const Event* e = events; e != events_end; ++e) ++start[e->point + 1];
+        for (size_t i = 0; i < n; ++i) start[i + 1] += start[i];
+        sorted.resize(crossings.n);
+        for (const Event* e = events; e != events_end; ++e) sorted[start[e->point]++] = *e;
+        // start[i] is now the end of point i's run.
         std::uint32_t begin = 0;
         for (size_t i = 0; i < n; ++i) {
           const std::uint32_t end = start[i];
@@ -916,7 +966,7 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
 
 // Exhaustive mode: one point over the instants [c0, c1) of the buffer, every satellite at every instant.
 void scan_point(const Sweep& sw, size_t p, long c0, long c1, Partial& acc, std::vector<int>& fresh,
-                std::vector<Event>& events, std::vector<double>& top) {
+                CrossingBatch& crossings, std::vector<double>& top) {
   const PositionBuffer& buf = sw.buf;
   const PointGeo& pg = sw.geo[p];
   PointState& ps = sw.state[p];
@@ -940,22 +990,25 @@ void scan_point(const Sweep& sw, size_t p, long c0, long c1, Partial& acc, std::
       start_timeline(ps, static_cast<int>(fresh.size()));
     } else {
       // Rises (in fresh, not in vis) and sets (in vis, not in fresh) inside (t_{j-1}, t_j].
-      events.clear();
+      crossings.clear();
       size_t a = 0, b = 0;
       while (a < ps.vis.size() || b < fresh.size()) {
         if (b == fresh.size() || (a < ps.vis.size() && ps.vis[a] < fresh[b])) {
-          events.push_back({crossing_time(pg, buf, sw.smp, step, ps.vis[a], sw.gm), -1, 0});
+          crossings.add(crossing_bracket(pg, buf, step, ps.vis[a], sw.gm), -1, 0);
           ++a;
         } else if (a == ps.vis.size() || fresh[b] < ps.vis[a]) {
-          events.push_back({crossing_time(pg, buf, sw.smp, step, fresh[b], sw.gm), +1, 0});
+          crossings.add(crossing_bracket(pg, buf, step, fresh[b], sw.gm), +1, 0);
           ++b;
         } else {
           ++a;
           ++b;
         }
       }
-      std::sort(events.begin(), events.end(), event_before);
-      apply_events(ps, sums, events.data(), events.data() + events.size(), sw.smp.time(step - 1), sw.smp.time(step));
+      const double t0 = sw.smp.time(step - 1), t1 = sw.smp.time(step);
+      crossings.solve(t0, t1);
+      Event* events = crossings.event.data();
+      std::sort(events, events + crossings.n, event_before);
+      apply_events(ps, sums, events, events + crossings.n, t0, t1);
       assert(ps.count == static_cast<int>(fresh.size()));
     }
     add_covered(acc, static_cast<size_t>(step - c0), K, 0, ps.count, sw.weight_q[p]);
@@ -1247,9 +1300,9 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
           tbb::blocked_range<size_t>(0, P, 64), identity,
           [&](const tbb::blocked_range<size_t>& range, Partial acc) {
             std::vector<int> fresh;
-            std::vector<Event> events;
+            CrossingBatch crossings;
             std::vector<double> top(static_cast<size_t>(K));
-            for (size_t p = range.begin(); p < range.end(); ++p) scan_point(sw, p, c0, c1, acc, fresh, events, top);
+            for (size_t p = range.begin(); p < range.end(); ++p) scan_point(sw, p, c0, c1, acc, fresh, crossings, top);
             if (options.progress) options.progress->fetch_add(static_cast<std::int64_t>(range.size()) * (c1 - c0));
             return acc;
           },
