@@ -510,11 +510,10 @@ struct PointState {
   double count_time = 0.0;
 };
 
-// Per-point integrals: time with at least k in view (k = 1..K) and time with n in view.
+// Per-point integrals: time with n in view (the time with at least k in view, k = 1..K, is summed from it at
+// the end; K is at most 16, under the last bin).
 struct PointSums {
-  double* at_least;
   double* hist;
-  int K;
 };
 
 inline void integrate(PointState& ps, const PointSums& sums, double t) {
@@ -522,7 +521,6 @@ inline void integrate(PointState& ps, const PointSums& sums, double t) {
   if (dt <= 0.0) return;
   ps.count_time += ps.count * dt;
   sums.hist[std::min(ps.count, in_view_bins - 1)] += dt;
-  for (int k = 0; k < std::min(ps.count, sums.K); ++k) sums.at_least[k] += dt;
   ps.last_t = t;
 }
 
@@ -688,12 +686,11 @@ struct Sweep {
   double search_rad = 0.0;     // k-th nearest search radius
   double search_cos = 0.0;     // its cosine: when the k-th best found is at least this, it is exact
   std::vector<PointState>& state;
-  std::vector<double>& at_least;
   std::vector<double>& worst_cos;
   std::vector<double>& hist;
   std::vector<int>& nearest;  // culled mode: the K nearest satellites when the point was last searched (-1: never)
   PointSums sums(size_t p) const {
-    return {&at_least[p * static_cast<size_t>(K)], &hist[p * in_view_bins], K};
+    return {&hist[p * in_view_bins]};
   }
 };
 
@@ -1190,7 +1187,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
   const long chunk = std::clamp(static_cast<long>(buffer_budget_bytes / bytes_per_instant) - 1, 1L, exhaustive ? 64L : culled_chunk);
 
   std::vector<PointState> state(P);
-  std::vector<double> at_least(P * static_cast<size_t>(K), 0.0), worst_cos(P * static_cast<size_t>(K), 2.0);
+  std::vector<double> worst_cos(P * static_cast<size_t>(K), 2.0);
   std::vector<double> hist(P * in_view_bins, 0.0);
   std::vector<std::int64_t> running(static_cast<size_t>(K), 0);
   std::vector<std::int64_t> worst_q(static_cast<size_t>(K), std::numeric_limits<std::int64_t>::max());
@@ -1200,7 +1197,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
   buf.sats = T;
   const double search_rad = radius_search_rad(K, T);
   std::vector<int> nearest(exhaustive ? 0 : P * static_cast<size_t>(K), -1);
-  const Sweep sw{buf, smp, gm, geo, weight_q, K, T, search_rad, std::cos(search_rad), state, at_least, worst_cos, hist, nearest};
+  const Sweep sw{buf, smp, gm, geo, weight_q, K, T, search_rad, std::cos(search_rad), state, worst_cos, hist, nearest};
 
   tbb::enumerable_thread_specific<RowScratch> scratches;
   for (long c0 = 0; c0 < smp.n; c0 += chunk) {
@@ -1358,8 +1355,18 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
     if (ps.in_gap && smp.span - ps.gap_start > 0.0) ps.gaps.push_back(static_cast<float>(smp.span - ps.gap_start));
     PointCoverage& pc = res.points[p];
     pc.point = grid.points[p];
+    // Time with at least k in view: the bins above k - 1, summed from the top.
+    double at_least[max_fold_limit];
+    {
+      const double* h = &hist[p * in_view_bins];
+      double above = 0.0;
+      for (int n = in_view_bins - 1; n >= 1; --n) {
+        above += h[n];
+        if (n <= K) at_least[n - 1] = above;
+      }
+    }
     for (int k = 0; k < K; ++k) {
-      pc.percent_by_fold.push_back(100.0 * at_least[p * static_cast<size_t>(K) + static_cast<size_t>(k)] / smp.span);
+      pc.percent_by_fold.push_back(100.0 * at_least[k] / smp.span);
       const double rd = std::acos(std::clamp(worst_cos[p * static_cast<size_t>(K) + static_cast<size_t>(k)], -1.0, 1.0)) * deg_per_rad;
       pc.radius_deg_by_fold.push_back(rd);
       res.required_radius_deg[static_cast<size_t>(k)] = std::max(res.required_radius_deg[static_cast<size_t>(k)], rd);
