@@ -367,6 +367,10 @@ struct Row {
   std::vector<int> point;
   FootprintRow bounds;
   double guess_scale = 0.0;  // (n - 1) / (last - first longitude): index per radian of the linear guess
+  // Evenly spaced round the whole circle (global and band grids): longitude k is lon0 + k / per_rad within
+  // 1e-9 rad, and n / per_rad is 2 pi within 1e-9 rad.
+  bool periodic = false;
+  double lon0 = 0.0, per_rad = 0.0;
 };
 
 std::vector<Row> build_rows(const std::vector<PointGeo>& geo, double min_elevation_rad,
@@ -412,6 +416,17 @@ std::vector<Row> build_rows(const std::vector<PointGeo>& geo, double min_elevati
     // Pads: 1 m in radius, 1e-9 rad in deflection, against rounding.
     if (r.lon.size() > 1 && r.lon.back() > r.lon.front())
       r.guess_scale = static_cast<double>(r.lon.size() - 1) / (r.lon.back() - r.lon.front());
+    if (r.lon.size() > 1) {
+      const double spacing = (r.lon.back() - r.lon.front()) / static_cast<double>(r.lon.size() - 1);
+      bool even = std::abs(spacing * static_cast<double>(r.lon.size()) - two_pi) < 1e-9;
+      for (size_t m = 0; m < r.lon.size() && even; ++m)
+        even = std::abs(r.lon[m] - (r.lon.front() + static_cast<double>(m) * spacing)) < 1e-9;
+      if (even) {
+        r.periodic = true;
+        r.lon0 = r.lon.front();
+        r.per_rad = 1.0 / spacing;
+      }
+    }
     r.bounds = make_footprint_row(rmin - 1e-3, rmax + 1e-3, defl + 1e-9, min_elevation_rad, nadir_half_angle_rad);
   }
   return rows;
@@ -443,10 +458,45 @@ inline long row_upper_bound(const Row& row, double x) {
   return k;
 }
 
+template <class F>
+void for_row(const Row& row, F&& f) {
+  for (long k = 0, n = static_cast<long>(row.lon.size()); k < n; ++k) f(k);
+}
+
+// On a periodic row, points are counted round the circle without end: index k stands for point k mod n.
+// The indices [first, last) of the points on the arc from a to b (any reals, a <= b), widened by 1e-6 of a
+// spacing at each end, which covers the 1e-9 rad the points may be off the even spacing. The callers need
+// only a superset of the points (a point visited needlessly costs one exact test and changes no result), but
+// never a point twice.
+struct IndexSpan {
+  long first, last;
+};
+inline IndexSpan periodic_span(const Row& row, double a, double b) {
+  return {static_cast<long>(std::ceil((a - row.lon0) * row.per_rad - 1e-6)),
+          static_cast<long>(std::floor((b - row.lon0) * row.per_rad + 1e-6)) + 1};
+}
+// Call f(i) once for each point of the span (the whole row once when the span is n or longer).
+template <class F>
+void for_span(const Row& row, long first, long last, F&& f) {
+  const long n = static_cast<long>(row.lon.size());
+  if (last - first >= n) return for_row(row, f);
+  if (last <= first) return;
+  long k0 = first % n;
+  if (k0 < 0) k0 += n;
+  const long end = k0 + (last - first);
+  for (long k = k0, e = std::min(n, end); k < e; ++k) f(k);
+  for (long k = 0; k < end - n; ++k) f(k);
+}
+
 // Call f(i) for the row points whose longitude lies on the arc from a to b (rad, b - a < 2 pi, any real a),
-// with each end open or closed. Each point is visited at most once.
+// with each end open or closed (on a periodic row, a superset: the span of both ends closed and widened).
+// Each point is visited at most once.
 template <class F>
 void for_arc(const Row& row, double a, double b, bool open_a, bool open_b, F&& f) {
+  if (row.periodic) {
+    const IndexSpan sp = periodic_span(row, a, b);
+    return for_span(row, sp.first, sp.last, f);
+  }
   const double shift = two_pi * std::floor((a + pi) * (1.0 / two_pi));
   a -= shift;  // now in [-pi, pi)
   b -= shift;
@@ -461,9 +511,23 @@ void for_arc(const Row& row, double a, double b, bool open_a, bool open_b, F&& f
   }
 }
 
+// Call f(i) for the points on the arcs [a1, b1) and (a2, b2], with a1 <= b1 <= a2 <= b2 and b2 - a1 < 2 pi
+// (on a periodic row, a superset), each point at most once.
 template <class F>
-void for_row(const Row& row, F&& f) {
-  for (long k = 0, n = static_cast<long>(row.lon.size()); k < n; ++k) f(k);
+void for_two_arcs(const Row& row, double a1, double b1, double a2, double b2, F&& f) {
+  if (!row.periodic) {
+    for_arc(row, a1, b1, false, true, f);
+    for_arc(row, a2, b2, true, false, f);
+    return;
+  }
+  const long n = static_cast<long>(row.lon.size());
+  const IndexSpan s1 = periodic_span(row, a1, b1);
+  IndexSpan s2 = periodic_span(row, a2, b2);
+  if (s1.last - s1.first >= n) return for_row(row, f);
+  if (s1.last >= s2.first) return for_span(row, s1.first, std::max(s1.last, s2.last), f);  // the widened spans meet
+  s2.last = std::min(s2.last, s1.first + n);  // nor may the second come round onto the first
+  for_span(row, s1.first, s1.last, f);
+  for_span(row, s2.first, s2.last, f);
 }
 
 // Call f(i) for the row points within half-width h (rad, >= 0; >= pi: the whole row) of longitude lon.
@@ -861,8 +925,7 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
             for_row(row, test);
           }
         } else if (inner) {
-          for_arc(row, x1.lon + ulo, x1.lon + ilo, false, true, test);
-          for_arc(row, x1.lon + ihi, x1.lon + uhi, true, false, test);
+          for_two_arcs(row, x1.lon + ulo, x1.lon + ilo, x1.lon + ihi, x1.lon + uhi, test);
         } else {
           for_arc(row, x1.lon + ulo, x1.lon + uhi, false, false, test);
         }
