@@ -7,14 +7,6 @@
 
 namespace skein {
 
-double fast_acos(double x) {
-  x = std::clamp(x, -1.0, 1.0);
-  const double ax = std::abs(x);
-  // Abramowitz and Stegun 4.4.45 coefficients.
-  const double r = std::sqrt(1.0 - ax) * (1.5707288 + ax * (-0.2121144 + ax * (0.0742610 + ax * -0.0187293)));
-  return x >= 0.0 ? r : pi - r;
-}
-
 FootprintRow make_footprint_row(double min_radius_km, double max_radius_km, double max_deflection_rad,
                                 double min_elevation_rad, std::optional<double> nadir_half_angle_rad) {
   FootprintRow row;
@@ -53,20 +45,6 @@ FootprintCosines footprint_cosines(const FootprintRow& row, double r_km) {
   }
   f.inner = inner + margin;
   return f;
-}
-
-double row_half_width(double sin_r, double cos_r, double sin_s, double cos_s, double c, bool widen) {
-  const double den = cos_r * cos_s;
-  const double base = sin_r * sin_s;
-  if (!(den > 0.0)) return base >= c ? pi : -1.0;  // a pole: the central angle does not depend on longitude
-  if (base + den < c) return -1.0;  // q > 1 without the division: even dlon = 0 is outside
-  const double q = (c - base) / den;
-  if (q > 1.0) return -1.0;
-  if (q <= -1.0) return pi;
-  const double h = fast_acos(q);
-  if (widen) return h + fast_acos_error_rad;
-  const double narrowed = h - fast_acos_error_rad;
-  return narrowed < 0.0 ? -1.0 : narrowed;
 }
 
 }  // namespace skein

@@ -5,7 +5,11 @@
 // the inner angle surely does. On the row, each angle becomes a window of longitudes. Only the pairs between
 // the two bounds need the exact test, so the work follows the pass boundaries, not satellites x points.
 // Pure functions; angles in radians, lengths in km.
+#include <algorithm>
+#include <cmath>
 #include <optional>
+
+#include "skein/constants.hpp"
 
 namespace skein {
 
@@ -13,7 +17,14 @@ namespace skein {
 // of Mathematical Functions", 1964, eq. 4.4.45 (acos x = sqrt(1 - x) (a0 + a1 x + a2 x^2 + a3 x^3), error at
 // most 6.7e-5 rad on [0, 1]), with acos(-x) = pi - acos(x). Used only to size windows, which are widened or
 // narrowed by the error bound, so no result depends on it. Arguments outside [-1, 1] are clamped.
-double fast_acos(double x);
+// (Inline, with row_half_width: both sit in the innermost loop of the coverage row sweep.)
+inline double fast_acos(double x) {
+  x = std::clamp(x, -1.0, 1.0);
+  const double ax = std::abs(x);
+  // Abramowitz and Stegun 4.4.45 coefficients.
+  const double r = std::sqrt(1.0 - ax) * (1.5707288 + ax * (-0.2121144 + ax * (0.0742610 + ax * -0.0187293)));
+  return x >= 0.0 ? r : pi - r;
+}
 inline constexpr double fast_acos_error_rad = 1e-4;  // above the published 6.7e-5 (tests check the bound)
 
 // What a footprint bound needs to know of a row of ground points.
@@ -50,6 +61,19 @@ FootprintCosines footprint_cosines(const FootprintRow& row, double r_km);
 // cosines cos theta = sin_r sin_s + cos_r cos_s cos(dlon). Returns a negative value when the set is empty and
 // a value >= pi when it is the whole row. `widen` pads the window by the fast_acos error (for outer bounds,
 // which must not miss a point); otherwise it is narrowed by it (for inner bounds, which must not claim one).
-double row_half_width(double sin_r, double cos_r, double sin_s, double cos_s, double c, bool widen);
+inline double row_half_width(double sin_r, double cos_r, double sin_s, double cos_s, double c, bool widen) {
+  const double den = cos_r * cos_s;
+  const double base = sin_r * sin_s;
+  if (!(den > 0.0)) return base >= c ? pi : -1.0;  // a pole: the central angle does not depend on longitude
+  if (base + den < c) return -1.0;  // q > 1 without the division: even dlon = 0 is outside
+  const double q = (c - base) / den;
+  if (q > 1.0) return -1.0;
+  if (q <= -1.0) return pi;
+  const double h = fast_acos(q);
+  if (widen) return h + fast_acos_error_rad;
+  const double narrowed = h - fast_acos_error_rad;
+  return narrowed < 0.0 ? -1.0 : narrowed;
+}
+
 
 }  // namespace skein
