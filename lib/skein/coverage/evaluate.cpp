@@ -471,9 +471,17 @@ void for_row(const Row& row, F&& f) {
 struct IndexSpan {
   long first, last;
 };
+// Floor and ceiling of x for |x| < 2^62 (truncation toward zero, then one step), without a library call.
+inline long floor_long(double x) {
+  const long t = static_cast<long>(x);
+  return t - (static_cast<double>(t) > x);
+}
+inline long ceil_long(double x) {
+  const long t = static_cast<long>(x);
+  return t + (static_cast<double>(t) < x);
+}
 inline IndexSpan periodic_span(const Row& row, double a, double b) {
-  return {static_cast<long>(std::ceil((a - row.lon0) * row.per_rad - 1e-6)),
-          static_cast<long>(std::floor((b - row.lon0) * row.per_rad + 1e-6)) + 1};
+  return {ceil_long((a - row.lon0) * row.per_rad - 1e-6), floor_long((b - row.lon0) * row.per_rad + 1e-6) + 1};
 }
 // Call f(i) once for each point of the span (the whole row once when the span is n or longer).
 template <class F>
