@@ -23,9 +23,9 @@
 // How the evaluation runs (both modes give the same numbers, to the bit):
 //  - Satellite positions and velocities are computed for a chunk of sample instants at a time.
 //  - Each ground point keeps a timeline: the number of satellites in view changes only at a rise or a set,
-//    whose time inside the step is refined (CrossingBatch, hermite_root); the time integrals of the metrics are taken
-//    between those events. A rise or set of (point, satellite) inside (t_{j-1}, t_j] is a pair whose exact
-//    visibility test differs at t_{j-1} and t_j.
+//    whose time inside the step is refined (CrossingBatch, hermite_root); the time integrals of the metrics
+//    are taken between those events. A rise or set of (point, satellite) inside (t_{j-1}, t_j] is a pair
+//    whose exact visibility test differs at t_{j-1} and t_j.
 //  - Exhaustive mode tests every pair at every instant and finds the events by comparing the lists of
 //    satellites in view.
 //  - Culled mode sweeps the grid row by row (points of one geocentric latitude). For each satellite near the
