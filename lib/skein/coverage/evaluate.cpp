@@ -257,14 +257,23 @@ Bracket crossing_bracket(const PointGeo& p, const PositionBuffer& b, long j, int
 // (newton_from_secant), or, where those do not settle, by a safeguarded Newton iteration.
 double hermite_root(double f0, double d0, double f1, double d1, double t0, double t1);
 
-// The fast path of hermite_root, in x = (t - t0) / h: two plain Newton steps on the power form
-// c0 + c1 x + c2 x^2 + c3 x^3 of the interpolant, from the secant root. Returns x and sets the second step.
-// It has no branches, so a batch of these runs as independent chains (CrossingBatch::solve).
+// The interpolant in power form in x = (t - t0) / h: c0 + c1 x + c2 x^2 + c3 x^3, with its value and slope.
+struct HermiteCubic {
+  double c0, c1, c2, c3;
+  HermiteCubic(double f0, double d0, double f1, double d1, double h)
+      : c0(f0), c1(h * d0), c2(3.0 * (f1 - f0) - h * (2.0 * d0 + d1)), c3(2.0 * (f0 - f1) + h * (d0 + d1)) {}
+  double value(double x) const { return c0 + x * (c1 + x * (c2 + x * c3)); }
+  double slope(double x) const { return c1 + x * (2.0 * c2 + x * 3.0 * c3); }
+};
+
+// The fast path of hermite_root: two plain Newton steps on the interpolant from the secant root. Returns x
+// and sets the second step. It has no branches, so a batch of these runs as independent chains
+// (CrossingBatch::solve).
 inline double newton_from_secant(double f0, double d0, double f1, double d1, double h, double& step) {
-  const double c0 = f0, c1 = h * d0, c2 = 3.0 * (f1 - f0) - h * (2.0 * d0 + d1), c3 = 2.0 * (f0 - f1) + h * (d0 + d1);
+  const HermiteCubic c(f0, d0, f1, d1, h);
   const double xa = f0 / (f0 - f1);
-  const double xb = xa - (c0 + xa * (c1 + xa * (c2 + xa * c3))) / (c1 + xa * (2.0 * c2 + xa * 3.0 * c3));
-  step = (c0 + xb * (c1 + xb * (c2 + xb * c3))) / (c1 + xb * (2.0 * c2 + xb * 3.0 * c3));
+  const double xb = xa - c.value(xa) / c.slope(xa);
+  step = c.value(xb) / c.slope(xb);
   return xb - step;
 }
 
@@ -285,7 +294,7 @@ double hermite_root(double f0, double d0, double f1, double d1, double t0, doubl
     const double x = newton_from_secant(f0, d0, f1, d1, h, step);
     if (fast_root_accepted(f0, f1, x, step)) return t0 + x * h;
   }
-  const double c0 = f0, c1 = h * d0, c2 = 3.0 * (f1 - f0) - h * (2.0 * d0 + d1), c3 = 2.0 * (f0 - f1) + h * (d0 + d1);
+  const HermiteCubic c(f0, d0, f1, d1, h);
   double a = 0.0, bb = 1.0;
   const bool fb_negative = f1 < 0.0;
   double x = f0 / (f0 - f1);
@@ -293,8 +302,8 @@ double hermite_root(double f0, double d0, double f1, double d1, double t0, doubl
   // bisection. Stops after a Newton step below 1e-4 of the interval, which leaves an error far under the
   // interpolation residual.
   for (int it = 0; it < 12; ++it) {
-    const double v = c0 + x * (c1 + x * (c2 + x * c3));
-    const double dv = c1 + x * (2.0 * c2 + x * 3.0 * c3);
+    const double v = c.value(x);
+    const double dv = c.slope(x);
     if (v == 0.0) break;
     if ((v < 0.0) == fb_negative) {
       bb = x;
