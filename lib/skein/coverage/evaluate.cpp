@@ -15,6 +15,7 @@
 
 #include "skein/coverage/footprint.hpp"
 #include "skein/coverage/ground_geometry.hpp"
+#include "skein/coverage/spec.hpp"
 #include "skein/design/constellation.hpp"
 #include "skein/error.hpp"
 #include "skein/orbit/propagate.hpp"
@@ -40,8 +41,6 @@
 namespace skein {
 namespace {
 
-// The largest fold K accepted (the YAML block and --fold both stop at 16).
-constexpr int max_fold_limit = 16;
 // Bins of the satellites-in-view distribution: 0 .. in_view_bins-2, and "in_view_bins-1 or more".
 constexpr int in_view_bins = 33;
 // The geodetic vertical departs from the geocentric radial by at most 0.1924 deg on WGS-84 (the largest
@@ -1140,7 +1139,7 @@ CoverageSettings resolve_coverage_settings(const Design& design, const CoverageO
   }
   st.satellites = static_cast<int>(expand_constellation(design).size());
   if (o.max_fold) {
-    if (*o.max_fold < 1 || *o.max_fold > max_fold_limit) throw InputError(fmt::format("--fold {}: expected 1 to 16", *o.max_fold));
+    if (*o.max_fold < 1 || *o.max_fold > max_fold_limit) throw InputError(fmt::format("--fold {}: expected 1 to {}", *o.max_fold, max_fold_limit));
     if (*o.max_fold > st.satellites)
       throw InputError(fmt::format("--fold {}: the design has only {} satellites; expected a fold of at most {}",
                                    *o.max_fold, st.satellites, st.satellites));

@@ -125,7 +125,8 @@ CoverageSpec read_coverage_spec(const yaml::MapReader& root) {
       block.fail_key("step_s", fmt::format("the step {} s is longer than the span {} s", spec.step_s, spec.span_s));
   }
   if (block.has("max_fold")) {
-    spec.max_fold = static_cast<int>(block.integer("max_fold", 1, 16, "a coverage fold K from 1 to 16"));
+    spec.max_fold = static_cast<int>(block.integer("max_fold", 1, max_fold_limit,
+                                                        fmt::format("a coverage fold K from 1 to {}", max_fold_limit)));
     spec.max_fold_location = yaml::location(block.file(), block.node("max_fold").Mark()) + ": " + block.path_of("max_fold");
   }
   if (block.has("latitude_band_deg")) {

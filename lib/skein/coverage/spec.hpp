@@ -31,6 +31,9 @@ struct Site {
   double height_km = 0.0;  // above the ellipsoid
 };
 
+// The largest fold K accepted, in the YAML block and by --fold (bounds per-point scratch arrays).
+inline constexpr int max_fold_limit = 16;
+
 struct CoverageSpec {
   bool present = false;                 // the design has a coverage block
   GridKind grid = GridKind::global;     // grid.kind, default global
