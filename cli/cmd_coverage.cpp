@@ -135,14 +135,19 @@ void add_coverage_command(CLI::App& app) {
       j["latitude_bands"] = rows_to_json(bands);
       j["in_view_distribution"] = rows_to_json(in_view_distribution_table(result));
       j["gap_quantiles_s"] = result.gap_quantiles_s;
+      j["passes_between_instants"] = result.hidden_passes;
+      j["path_error_bound_m"] = result.path_error_bound_m;
       j["pair_tests"] = result.pair_tests;
       j["point_steps"] = result.point_steps;
       print_stdout(j.dump(2) + "\n");
     } else if (f == OutputFormat::csv) {
       print_stdout(render_csv(bands));
     } else {
-      print_stdout(render_text(overview) + "\n" + render_text(folds) + "\n" + render_text(bands) + "\n" +
-                   render_text(in_view_distribution_table(result)));
+      print_stdout(render_text(overview) + "\n" +
+                   fmt::format("Passes shorter than the step, found between sample instants: {} (satellite path between "
+                               "instants good to {:.2g} m)\n\n",
+                               result.hidden_passes, result.path_error_bound_m) +
+                   render_text(folds) + "\n" + render_text(bands) + "\n" + render_text(in_view_distribution_table(result)));
     }
     print_stderr(caution);
   });

@@ -15,6 +15,7 @@
 
 #include "skein/coverage/footprint.hpp"
 #include "skein/coverage/ground_geometry.hpp"
+#include "skein/coverage/hidden_pass.hpp"
 #include "skein/coverage/spec.hpp"
 #include "skein/design/constellation.hpp"
 #include "skein/error.hpp"
@@ -104,6 +105,10 @@ struct PositionBuffer {
   // Per instant: the largest outer footprint angle of any satellite over any row, and the largest change of a
   // satellite's geocentric latitude since the previous instant (both rad).
   std::vector<double> reach_rad, moved_rad;
+  // The largest angle from a satellite's ground direction at t_{j-1} or t_j to a point that can see it
+  // during the step (the outer angle at the largest orbit radius, plus the chord's half and the track's
+  // deviation bound; hidden_pass.hpp). Constant over the run.
+  double swept_reach_rad = 0.0;
   // Culled mode only: per instant, the satellites sorted by geocentric latitude.
   std::vector<int> by_lat;
   std::vector<double> by_lat_sin;   // sin of the latitude, same order (contiguous for the binary searches)
@@ -119,6 +124,9 @@ struct Geometry {
   bool cone = false;
   double cos_cone = 0.0;
   bool polynomial = false;  // crossing times on the polynomial form of the margin (no cone, mask >= 5 deg)
+  // Rises and sets found on the satellite's cubic path instead of the margin's cubic in time: set when the
+  // step is long against the shortest full pass, where the margin is far from a cubic over a step.
+  bool roots_on_path = false;
 };
 
 // Visibility margin of satellite s from point p at a buffered instant: sin(elevation) - sin(mask), and, with a
@@ -248,6 +256,72 @@ Bracket crossing_bracket(const PointGeo& p, const PositionBuffer& b, long j, int
   const bool use_cone = out.cone < out.mask;
   return {use_cone ? e0.cone : e0.mask, use_cone ? e0.cone_rate : e0.mask_rate, use_cone ? e1.cone : e1.mask,
           use_cone ? e1.cone_rate : e1.mask_rate};
+}
+
+// The true margin (the smaller term) and its rate, for the hidden-pass search (the polynomial form has the
+// visibility test's sign but not the margin's rate sign, so the search always uses the terms).
+inline MarginSample true_margin(const PointGeo& p, const SatPos& q, const SatVel& w, const Geometry& g) {
+  const MarginTerms e = margin_terms(p, q, w, g);
+  return e.cone < e.mask ? MarginSample{e.cone, e.cone_rate} : MarginSample{e.mask, e.mask_rate};
+}
+
+// A pass of (p, s) wholly inside (t_{j-1}, t_j] for a pair out of view at both instants (hidden_pass.hpp).
+// sin_limit is the sine of an outer footprint angle of s valid for p over the step, widened by the track's
+// deviation bound: the satellite's ground direction stays within that deviation of the great circle through
+// its directions at the two instants, so a point farther than the outer angle plus the deviation from that
+// circle cannot see it during the step (first test, no orbit evaluation). The path between the instants is
+// the cubic Hermite interpolant of the buffered positions and velocities. Both modes call this with the same
+// arguments for every pair that can hold a pass, so they find the same passes to the bit.
+std::optional<HiddenPass> hidden_pass(const PointGeo& p, const PositionBuffer& b, long j, int s, const Geometry& g,
+                                      double sin_limit, double t0, double t1) {
+  const SatPos& q0 = b.pos[b.at(j - 1, s)];
+  const SatPos& q1 = b.pos[b.at(j, s)];
+  if (sin_limit < 1.0) {
+    const double nx = q0.uy * q1.uz - q0.uz * q1.uy, ny = q0.uz * q1.ux - q0.ux * q1.uz, nz = q0.ux * q1.uy - q0.uy * q1.ux;
+    const double nn = std::sqrt(nx * nx + ny * ny + nz * nz);
+    if (nn > 1e-12 && std::abs(p.ux * nx + p.uy * ny + p.uz * nz) > sin_limit * nn) return std::nullopt;
+  }
+  const SatVel& w0 = b.vel[b.at(j - 1, s)];
+  const SatVel& w1 = b.vel[b.at(j, s)];
+  const MarginSample a = true_margin(p, q0, w0, g), c = true_margin(p, q1, w1, g);
+  if (!(a.rate > 0.0 && c.rate < 0.0)) return std::nullopt;
+  const double p0[3] = {q0.x, q0.y, q0.z}, v0[3] = {w0.vx, w0.vy, w0.vz};
+  const double p1[3] = {q1.x, q1.y, q1.z}, v1[3] = {w1.vx, w1.vy, w1.vz};
+  const CubicPath path(p0, v0, p1, v1, t1 - t0);
+  return find_hidden_pass(t0, t1, a, c, [&](double tau) {
+    double r[3], v[3];
+    path.at(tau, r, v);
+    const double len = std::sqrt(r[0] * r[0] + r[1] * r[1] + r[2] * r[2]);
+    const SatPos q{r[0], r[1], r[2], r[0] / len, r[1] / len, r[2] / len};
+    return true_margin(p, q, SatVel{v[0], v[1], v[2]}, g);
+  });
+}
+
+// The time of the one rise or set of (p, s) inside (t_{j-1}, t_j) (visible at one instant, not the other),
+// as the root of the true margin along the satellite's cubic path (regula falsi, Illinois, to 1e-9 of the
+// step). Used instead of the margin's cubic in time when Geometry::roots_on_path is set.
+double path_root(const PointGeo& p, const PositionBuffer& b, long j, int s, const Geometry& g, double t0, double t1) {
+  const SatPos& q0 = b.pos[b.at(j - 1, s)];
+  const SatPos& q1 = b.pos[b.at(j, s)];
+  const SatVel& w0 = b.vel[b.at(j - 1, s)];
+  const SatVel& w1 = b.vel[b.at(j, s)];
+  const double p0[3] = {q0.x, q0.y, q0.z}, v0[3] = {w0.vx, w0.vy, w0.vz};
+  const double p1[3] = {q1.x, q1.y, q1.z}, v1[3] = {w1.vx, w1.vy, w1.vz};
+  const CubicPath path(p0, v0, p1, v1, t1 - t0);
+  const auto f = [&](double tau) {
+    double r[3], v[3];
+    path.at(tau, r, v);
+    const double len = std::sqrt(r[0] * r[0] + r[1] * r[1] + r[2] * r[2]);
+    return true_margin(p, SatPos{r[0], r[1], r[2], r[0] / len, r[1] / len, r[2] / len}, SatVel{v[0], v[1], v[2]}, g).value;
+  };
+  return t0 + (t1 - t0) * illinois_root(0.0, true_margin(p, q0, w0, g).value, 1.0, true_margin(p, q1, w1, g).value, f, 1e-9);
+}
+
+// Sine of the cross-track limit for hidden_pass from the cosine of an outer footprint angle and the track's
+// deviation bound eps: sin(lambda + eps), or 2 (no limit) when lambda + eps reaches 90 deg.
+inline double cross_track_sin_limit(double cos_lambda, double eps_rad) {
+  const double lam = std::acos(std::clamp(cos_lambda, -1.0, 1.0)) + eps_rad + 1e-9;
+  return lam >= pi / 2 ? 2.0 : std::sin(lam);
 }
 
 // Time of the sign change of a bracket inside (t0, t1). Between the two instants the margin is replaced by the
@@ -699,6 +773,7 @@ struct Partial {
   std::int64_t pair_tests = 0;      // visibility tests
   std::int64_t distance_tests = 0;  // central-angle evaluations for the k-th nearest satellite
   std::int64_t fallbacks = 0;
+  std::int64_t hidden_passes = 0;   // passes found wholly between two instants
 };
 
 double weighted_quantile(std::vector<std::pair<float, double>>& sample, double q) {
@@ -769,6 +844,9 @@ struct Sweep {
   std::vector<double>& worst_cos;
   std::vector<double>& hist;
   std::vector<int>& nearest;  // culled mode: the K nearest satellites when the point was last searched (-1: never)
+  double track_eps_rad = 0.0;               // deviation bound of a ground direction from its chord over a step
+  const std::vector<double>& sat_r_apo_km;  // largest orbit radius of each satellite
+  const std::vector<double>& sat_sin_limit; // exhaustive mode: cross-track limit of each satellite, any point
   PointSums sums(size_t p) const {
     return {&hist[p * in_view_bins]};
   }
@@ -781,12 +859,12 @@ inline void add_covered(Partial& acc, size_t local_step, int K, int before, int 
   }
 }
 
-// The outer and inner half-widths of each satellite's windows on one row at one instant, keyed by
-// instant * rows + row (the inner one is no_window when it was not needed there).
+// The inner half-width of each satellite's window on one row at one instant, keyed by instant * rows + row
+// (no_window when it was not needed there).
 constexpr double no_window = -1e300;
 struct WindowCache {
   std::vector<long> key;
-  std::vector<double> out, in;
+  std::vector<double> in;
 };
 
 // Scratch of one worker thread in culled mode, kept across rows and chunks.
@@ -799,6 +877,7 @@ struct RowScratch {
   std::vector<int> top_sat;
   std::vector<char> open;
   WindowCache cache;
+  std::vector<Event> hidden;  // rises and sets of passes found between two instants, this step
 };
 
 // Culled mode: row number r of `rows_total` over the instants [c0, c1) of the buffer.
@@ -827,9 +906,18 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
     }
     return f_seen;
   };
+  // The same at a satellite's largest orbit radius (its outer cosine holds over a whole step), with the sine of
+  // the hidden-pass cross-track limit.
+  double r_apo_seen = -1.0, cos_apo = 1.0, sin_limit_apo = 2.0;
+  const auto apogee_outer = [&](double r_km) {
+    if (r_km != r_apo_seen) {
+      r_apo_seen = r_km;
+      cos_apo = footprint_cosines(row.bounds, r_km + radius_tolerance_km).outer;
+      sin_limit_apo = cross_track_sin_limit(cos_apo, sw.track_eps_rad);
+    }
+  };
   if (cache.key.size() != static_cast<size_t>(sw.T)) {
     cache.key.assign(static_cast<size_t>(sw.T), -1);
-    cache.out.assign(static_cast<size_t>(sw.T), 0.0);
     cache.in.assign(static_cast<size_t>(sw.T), 0.0);
   }
   const size_t n = row.point.size();
@@ -864,9 +952,12 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
     } else {
       // Rises and sets inside (t_{j-1}, t_j].
       crossings.clear();
+      scratch.hidden.clear();
+      const double t0 = sw.smp.time(step - 1), t1 = sw.smp.time(step);
       const SatAux* sx0 = &buf.by_lat_prev[buf.at(step, 0)];
-      const double reach = std::max(buf.reach_rad[buf.local(step)],
-                                    buf.reach_rad[buf.local(step - 1)] + buf.moved_rad[buf.local(step)]);
+      // Satellites whose swept footprint can reach the row: the widest outer angle, widened as in
+      // swept_footprint_cos for the largest chord of a step.
+      const double reach = std::max(buf.swept_reach_rad, buf.reach_rad[buf.local(step - 1)]) + buf.moved_rad[buf.local(step)];
       const auto [a, b] = latitude_range(buf, step, row.psi, reach);
       for (int k = a; k < b; ++k) {
         const int s = ord[k];
@@ -874,33 +965,39 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
         const SatAux& x0 = sx0[k];
         const FootprintCosines f1 = cosines(x1.r_km);
         const FootprintCosines f0 = cosines(x0.r_km);
-        const double h1o = row_half_width(row.sin_psi, row.cos_psi, x1.sin_psi, x1.cos_psi, f1.outer, true);
-        // The window of t_{j-1}, from this row's previous instant when it was computed there.
+        // The inner window of t_{j-1}, from this row's previous instant when it was computed there.
         const size_t su = static_cast<size_t>(s);
         const bool cached = cache.key[su] == (step - 1) * rows_total + r;
-        const double h0o = cached ? cache.out[su] : row_half_width(row.sin_psi, row.cos_psi, x0.sin_psi, x0.cos_psi, f0.outer, true);
         const double cache_in0 = cached ? cache.in[su] : no_window;
         cache.key[su] = step * rows_total + r;
-        cache.out[su] = h1o;
         cache.in[su] = no_window;
-        if (h1o < 0.0 && h0o < 0.0) continue;
+        // The windows swept over the step (hidden passes): the outer angle at the satellite's largest radius,
+        // widened for its motion between the instants. They hold the outer windows of both instants.
+        apogee_outer(sw.sat_r_apo_km[su]);
+        const SatPos& u0 = buf.pos[buf.at(step - 1, s)];
+        const SatPos& u1 = sp1[s];
+        const double c_w = swept_footprint_cos(cos_apo, sw.track_eps_rad, u0.ux * u1.ux + u0.uy * u1.uy + u0.uz * u1.uz);
+        const double sin_limit = sin_limit_apo;
+        const double h1w = row_half_width(row.sin_psi, row.cos_psi, x1.sin_psi, x1.cos_psi, c_w, true);
+        const double h0w = row_half_width(row.sin_psi, row.cos_psi, x0.sin_psi, x0.cos_psi, c_w, true);
+        if (h1w < 0.0 && h0w < 0.0) continue;
         // Longitudes as offsets from the satellite's at t_j; d0 is its offset at t_{j-1}.
         double d0 = x0.lon - x1.lon;
         if (d0 > pi) d0 -= two_pi;
         if (d0 < -pi) d0 += two_pi;
         constexpr double whole = 4.0 * pi;  // a window that holds the whole row
         double ulo = 1e300, uhi = -1e300;
-        if (h1o >= 0.0) {
-          ulo = h1o >= pi ? -whole : -h1o;
-          uhi = h1o >= pi ? whole : h1o;
+        if (h1w >= 0.0) {
+          ulo = h1w >= pi ? -whole : -h1w;
+          uhi = h1w >= pi ? whole : h1w;
         }
-        if (h0o >= 0.0) {
-          ulo = std::min(ulo, h0o >= pi ? -whole : d0 - h0o);
-          uhi = std::max(uhi, h0o >= pi ? whole : d0 + h0o);
+        if (h0w >= 0.0) {
+          ulo = std::min(ulo, h0w >= pi ? -whole : d0 - h0w);
+          uhi = std::max(uhi, h0w >= pi ? whole : d0 + h0w);
         }
         bool inner = false;
         double ilo = 0.0, ihi = 0.0;
-        if (h1o >= 0.0 && h0o >= 0.0 && f1.inner <= 1.0 && f0.inner <= 1.0) {
+        if (h1w >= 0.0 && h0w >= 0.0 && f1.inner <= 1.0 && f0.inner <= 1.0) {
           const double h1i = row_half_width(row.sin_psi, row.cos_psi, x1.sin_psi, x1.cos_psi, f1.inner, false);
           cache.in[su] = h1i;
           const double h0i = h1i < 0.0 ? -1.0
@@ -915,6 +1012,16 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
         }
         if (inner && ihi - ilo >= two_pi) continue;  // the whole row sees the satellite at both instants
         const size_t i1 = buf.at(step, s), i0 = buf.at(step - 1, s);
+        const auto add_hidden = [&](const PointGeo& pg, long i) {
+          if (const auto pass = hidden_pass(pg, buf, step, s, sw.gm, sin_limit, t0, t1)) {
+            scratch.hidden.push_back({pass->rise_s, +1, static_cast<std::uint32_t>(i)});
+            scratch.hidden.push_back({pass->set_s, -1, static_cast<std::uint32_t>(i)});
+            ++acc.hidden_passes;
+          }
+        };
+        const auto add_on_path = [&](const PointGeo& pg, int delta, long i) {
+          scratch.hidden.push_back({path_root(pg, buf, step, s, sw.gm, t0, t1), delta, static_cast<std::uint32_t>(i)});
+        };
         const auto test = [&](long i) {
           const size_t p = static_cast<size_t>(row.point[static_cast<size_t>(i)]);
           const PointGeo& pg = sw.geo[p];
@@ -925,14 +1032,23 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
             const PolynomialValue e1 = polynomial_value(pg, buf.pos[i1], sw.gm);
             const PolynomialValue e0 = polynomial_value(pg, buf.pos[i0], sw.gm);
             const bool v1 = e1.value >= 0.0, v0 = e0.value >= 0.0;
-            if (v1 != v0)
+            if (v1 != v0 && sw.gm.roots_on_path)
+              add_on_path(pg, v1 ? 1 : -1, i);
+            else if (v1 != v0)
               crossings.add({e0.value, polynomial_rate(pg, e0, buf.vel[i0], sw.gm), e1.value,
                              polynomial_rate(pg, e1, buf.vel[i1], sw.gm)},
                             v1 ? 1 : -1, static_cast<std::uint32_t>(i));
+            else if (!v1)
+              add_hidden(pg, i);
             return;
           }
           const bool v1 = visible(pg, buf, i1, sw.gm), v0 = visible(pg, buf, i0, sw.gm);
-          if (v1 != v0) crossings.add(crossing_bracket(pg, buf, step, s, sw.gm), v1 ? 1 : -1, static_cast<std::uint32_t>(i));
+          if (v1 != v0 && sw.gm.roots_on_path)
+            add_on_path(pg, v1 ? 1 : -1, i);
+          else if (v1 != v0)
+            crossings.add(crossing_bracket(pg, buf, step, s, sw.gm), v1 ? 1 : -1, static_cast<std::uint32_t>(i));
+          else if (!v1)
+            add_hidden(pg, i);
         };
         if (uhi - ulo >= two_pi) {
           if (inner) {
@@ -946,17 +1062,20 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
           for_arc(row, x1.lon + ulo, x1.lon + uhi, false, false, test);
         }
       }
-      if (crossings.n > 0) {
-        const double t0 = sw.smp.time(step - 1), t1 = sw.smp.time(step);
+      if (crossings.n > 0 || !scratch.hidden.empty()) {
         crossings.solve(t0, t1);
         // Group the events by point (a counting sort, stable), then order each point's few events in time.
         const Event* events = crossings.event.data();
         const Event* events_end = events + crossings.n;
+        const Event* extra = scratch.hidden.data();
+        const Event* extra_end = extra + scratch.hidden.size();
         start.assign(n + 1, 0);
         for (const Event* e = events; e != events_end; ++e) ++start[e->point + 1];
+        for (const Event* e = extra; e != extra_end; ++e) ++start[e->point + 1];
         for (size_t i = 0; i < n; ++i) start[i + 1] += start[i];
-        sorted.resize(crossings.n);
+        sorted.resize(crossings.n + scratch.hidden.size());
         for (const Event* e = events; e != events_end; ++e) sorted[start[e->point]++] = *e;
+        for (const Event* e = extra; e != extra_end; ++e) sorted[start[e->point]++] = *e;
         // start[i] is now the end of point i's run.
         std::uint32_t begin = 0;
         for (size_t i = 0; i < n; ++i) {
@@ -1042,7 +1161,7 @@ void sweep_row(const Sweep& sw, const Row& row, long r, long rows_total, long c0
 
 // Exhaustive mode: one point over the instants [c0, c1) of the buffer, every satellite at every instant.
 void scan_point(const Sweep& sw, size_t p, long c0, long c1, Partial& acc, std::vector<int>& fresh,
-                CrossingBatch& crossings, std::vector<double>& top) {
+                CrossingBatch& crossings, std::vector<double>& top, std::vector<Event>& hidden) {
   const PositionBuffer& buf = sw.buf;
   const PointGeo& pg = sw.geo[p];
   PointState& ps = sw.state[p];
@@ -1067,24 +1186,46 @@ void scan_point(const Sweep& sw, size_t p, long c0, long c1, Partial& acc, std::
     } else {
       // Rises (in fresh, not in vis) and sets (in vis, not in fresh) inside (t_{j-1}, t_j].
       crossings.clear();
+      hidden.clear();
+      const double t0 = sw.smp.time(step - 1), t1 = sw.smp.time(step);
+      const auto add = [&](int s, int delta) {
+        if (sw.gm.roots_on_path)
+          hidden.push_back({path_root(pg, buf, step, s, sw.gm, t0, t1), delta, 0});
+        else
+          crossings.add(crossing_bracket(pg, buf, step, s, sw.gm), delta, 0);
+      };
       size_t a = 0, b = 0;
       while (a < ps.vis.size() || b < fresh.size()) {
         if (b == fresh.size() || (a < ps.vis.size() && ps.vis[a] < fresh[b])) {
-          crossings.add(crossing_bracket(pg, buf, step, ps.vis[a], sw.gm), -1, 0);
+          add(ps.vis[a], -1);
           ++a;
         } else if (a == ps.vis.size() || fresh[b] < ps.vis[a]) {
-          crossings.add(crossing_bracket(pg, buf, step, fresh[b], sw.gm), +1, 0);
+          add(fresh[b], +1);
           ++b;
         } else {
           ++a;
           ++b;
         }
       }
-      const double t0 = sw.smp.time(step - 1), t1 = sw.smp.time(step);
       crossings.solve(t0, t1);
-      Event* events = crossings.event.data();
-      std::sort(events, events + crossings.n, event_before);
-      apply_events(ps, sums, events, events + crossings.n, t0, t1);
+      // Passes wholly between the instants: every satellite out of view at both.
+      hidden.insert(hidden.end(), crossings.event.begin(), crossings.event.begin() + static_cast<long>(crossings.n));
+      {
+        size_t a0 = 0, b0 = 0;
+        for (int s = 0; s < sw.T; ++s) {
+          while (a0 < ps.vis.size() && ps.vis[a0] < s) ++a0;
+          while (b0 < fresh.size() && fresh[b0] < s) ++b0;
+          if ((a0 < ps.vis.size() && ps.vis[a0] == s) || (b0 < fresh.size() && fresh[b0] == s)) continue;
+          if (const auto pass = hidden_pass(pg, buf, step, s, sw.gm, sw.sat_sin_limit[static_cast<size_t>(s)], t0, t1)) {
+            hidden.push_back({pass->rise_s, +1, 0});
+            hidden.push_back({pass->set_s, -1, 0});
+            ++acc.hidden_passes;
+          }
+        }
+      }
+      Event* events = hidden.data();
+      std::sort(events, events + hidden.size(), event_before);
+      apply_events(ps, sums, events, events + hidden.size(), t0, t1);
       assert(ps.count == static_cast<int>(fresh.size()));
     }
     add_covered(acc, static_cast<size_t>(step - c0), K, 0, ps.count, sw.weight_q[p]);
@@ -1261,6 +1402,63 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
   }
   gm.polynomial = !gm.cone && st.spec.min_elevation_deg >= 5.0;
 
+  // Hidden passes (hidden_pass.hpp): bounds of each satellite's Earth-fixed ground-direction rate over the
+  // run, from Kepler's second law (h = r^2 dnu/dt) on its mean elements with the J2 secular rates: the
+  // true-anomaly rate lies between n (1 - e)^2 / (1 - e^2)^(3/2) at apogee and n (1 + e)^2 / (1 - e^2)^(3/2)
+  // at perigee (Vallado 2013, sec. 2.2), the perigee drift and the mean-anomaly correction add at most their
+  // size, and the frame turns at the Earth's rate plus the node drift. |d2nu/dt2| = 2 (dnu/dt) |dr/dt| / r is
+  // at most 2 nu'_max n a e / (sqrt(1 - e^2) r_min).
+  TrackRates tr;
+  tr.rate_min_rad_s = 1e300;
+  double frame_rate = earth.rotation_rad_s, path_r4 = 0.0, r_apo_max = 0.0;
+  std::vector<double> r_apo(static_cast<size_t>(T));
+  for (const SecularOrbit& o : orbits) frame_rate = std::max(frame_rate, earth.rotation_rad_s + std::abs(o.rates.raan_rad_s));
+  for (int s = 0; s < T; ++s) {
+    const SecularOrbit& o = orbits[static_cast<size_t>(s)];
+    const double e = o.epoch_elements.e, a = o.epoch_elements.a_km, n = o.rates.mean_motion_rad_s;
+    const double q = std::pow(1.0 - e * e, 1.5);
+    const double extra = std::abs(o.rates.argp_rad_s) + std::abs(o.rates.mean_anomaly_rad_s - n);
+    const double nu_max = n * (1.0 + e) * (1.0 + e) / q + extra, nu_min = n * (1.0 - e) * (1.0 - e) / q - extra;
+    tr.rate_max_rad_s = std::max(tr.rate_max_rad_s, nu_max + frame_rate);
+    tr.rate_min_rad_s = std::min(tr.rate_min_rad_s, nu_min - frame_rate);
+    tr.accel_max_rad_s2 = std::max(tr.accel_max_rad_s2, 2.0 * nu_max * n * a * e / (std::sqrt(1.0 - e * e) * a * (1.0 - e)));
+    r_apo[static_cast<size_t>(s)] = a * (1.0 + e);
+    r_apo_max = std::max(r_apo_max, a * (1.0 + e));
+    path_r4 = std::max(path_r4, a * (1.0 + e) * std::pow(nu_max + frame_rate, 4));
+  }
+  tr.frame_rate_rad_s = frame_rate;
+  const double track_eps = track_deviation_bound_rad(tr, smp.step);
+  // Position error of the cubic path between two instants, h^4 max|d4r/dt4| / 384 (hidden_pass.hpp), in m.
+  const double path_error_m = 1000.0 * std::pow(smp.step, 4) * path_r4 / 384.0;
+  // Exhaustive mode: one cross-track limit per satellite, from an outer footprint bound good for every point
+  // (the grid's smallest radius and largest vertical deflection).
+  std::vector<double> sat_sin_limit(static_cast<size_t>(T), 2.0);
+  double rmin = 1e300, rmax = 0.0, defl = 0.0;
+  for (const PointGeo& p : geo) {
+    const double len = std::sqrt(p.rx * p.rx + p.ry * p.ry + p.rz * p.rz);
+    rmin = std::min(rmin, len);
+    rmax = std::max(rmax, len);
+    defl = std::max(defl, std::acos(std::clamp(p.nx * p.ux + p.ny * p.uy + p.nz * p.uz, -1.0, 1.0)));
+  }
+  const FootprintRow any = make_footprint_row(rmin - 1e-3, rmax + 1e-3, defl + 1e-9, mask_rad, cone_rad);
+  // Crossing times: the margin's cubic in time has an error of order (h / tau)^4 for a step h and a pass of
+  // tau; the README's residuals (under 1 ms) hold for h up to a tenth of the shortest full pass (measured at
+  // 60 s on 10 deg masks, where a full pass lasts about 10 min). Where the step is longer than an eighth of
+  // the shortest full pass (a pass over the footprint's centre at the smallest radius, through the inner
+  // footprint angle at the highest track rate), the roots are found on the satellite's path instead.
+  {
+    double r_peri_min = 1e300;
+    for (const SecularOrbit& o : orbits) r_peri_min = std::min(r_peri_min, o.epoch_elements.a_km * (1.0 - o.epoch_elements.e));
+    const double c_in = footprint_cosines(any, r_peri_min).inner;
+    const double full_pass_s = c_in <= 1.0 ? 2.0 * std::acos(c_in) / tr.rate_max_rad_s : 0.0;
+    gm.roots_on_path = smp.step > full_pass_s / 8.0;
+  }
+  if (exhaustive) {
+    for (int s = 0; s < T; ++s)
+      sat_sin_limit[static_cast<size_t>(s)] =
+          cross_track_sin_limit(footprint_cosines(any, r_apo[static_cast<size_t>(s)] + 1e-6).outer, track_eps);
+  }
+
   // Instants per chunk: 64 (exhaustive) or culled_chunk, fewer when the satellite buffers would pass the budget.
   const double bytes_per_instant = static_cast<double>(T) * (sizeof(SatPos) + sizeof(SatVel) + 3.0 * sizeof(SatAux) + 20.0);
   const long chunk = std::clamp(static_cast<long>(buffer_budget_bytes / bytes_per_instant) - 1, 1L, exhaustive ? 64L : culled_chunk);
@@ -1270,13 +1468,15 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
   std::vector<double> hist(P * in_view_bins, 0.0);
   std::vector<std::int64_t> running(static_cast<size_t>(K), 0);
   std::vector<std::int64_t> worst_q(static_cast<size_t>(K), std::numeric_limits<std::int64_t>::max());
-  std::int64_t pair_tests = 0, distance_tests = 0, fallbacks = 0;
+  std::int64_t pair_tests = 0, distance_tests = 0, fallbacks = 0, hidden_passes = 0;
 
   PositionBuffer buf;
   buf.sats = T;
   const double search_rad = radius_search_rad(K, T);
   std::vector<int> nearest(exhaustive ? 0 : P * static_cast<size_t>(K), -1);
-  const Sweep sw{buf, smp, gm, geo, weight_q, K, T, search_rad, std::cos(search_rad), state, worst_cos, hist, nearest};
+  const Sweep sw{buf, smp, gm, geo, weight_q, K, T, search_rad, std::cos(search_rad), state, worst_cos, hist, nearest,
+                 track_eps, r_apo, sat_sin_limit};
+  if (!exhaustive) buf.swept_reach_rad = reach_of(r_apo_max) + track_eps + tr.rate_max_rad_s * smp.step / 2.0 + 1e-9;
 
   tbb::enumerable_thread_specific<RowScratch> scratches;
   for (long c0 = 0; c0 < smp.n; c0 += chunk) {
@@ -1368,6 +1568,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
       x.pair_tests += y.pair_tests;
       x.distance_tests += y.distance_tests;
       x.fallbacks += y.fallbacks;
+      x.hidden_passes += y.hidden_passes;
       return x;
     };
     Partial part;
@@ -1378,7 +1579,9 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
             std::vector<int> fresh;
             CrossingBatch crossings;
             std::vector<double> top(static_cast<size_t>(K));
-            for (size_t p = range.begin(); p < range.end(); ++p) scan_point(sw, p, c0, c1, acc, fresh, crossings, top);
+            std::vector<Event> hidden;
+            for (size_t p = range.begin(); p < range.end(); ++p)
+              scan_point(sw, p, c0, c1, acc, fresh, crossings, top, hidden);
             if (options.progress) options.progress->fetch_add(static_cast<std::int64_t>(range.size()) * (c1 - c0));
             return acc;
           },
@@ -1399,6 +1602,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
     pair_tests += part.pair_tests;
     distance_tests += part.distance_tests;
     fallbacks += part.fallbacks;
+    hidden_passes += part.hidden_passes;
     for (size_t l = 0; l < nsteps; ++l)
       for (int k = 0; k < K; ++k) {
         const std::int64_t v = part.covered[l * static_cast<size_t>(K) + static_cast<size_t>(k)];
@@ -1426,6 +1630,9 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
   res.pair_tests = pair_tests;
   res.distance_tests = distance_tests;
   res.radius_fallbacks = fallbacks;
+  res.hidden_passes = hidden_passes;
+  res.track_deviation_bound_deg = track_eps * deg_per_rad;
+  res.path_error_bound_m = path_error_m;
   res.points.resize(P);
   res.required_radius_deg.assign(static_cast<size_t>(K), 0.0);
   res.in_view_fraction.assign(in_view_bins, 0.0);

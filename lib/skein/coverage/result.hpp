@@ -76,6 +76,12 @@ struct CoverageResult {
   std::int64_t pair_tests = 0;              // (satellite, point, instant) visibility tests
   std::int64_t distance_tests = 0;          // (satellite, point, instant) central angles for the k-th nearest
   std::int64_t radius_fallbacks = 0;        // point-instants whose k-th nearest lay beyond the search cap (exact scan)
+  // Passes that begin and end between two sample instants, found by the search between instants; the bounds
+  // that search rests on: how far a ground track can stray from its chord over a step, and the position error
+  // of the cubic path between two instants.
+  std::int64_t hidden_passes = 0;
+  double track_deviation_bound_deg = 0.0;
+  double path_error_bound_m = 0.0;
 };
 
 }  // namespace skein
