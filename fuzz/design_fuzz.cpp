@@ -14,7 +14,7 @@
 #include "skein/design/constellation.hpp"
 #include "skein/design/design_file.hpp"
 #include "skein/error.hpp"
-#include "skein/orbit/drift_summary.hpp"
+#include "skein/drift/drift_summary.hpp"
 
 namespace {
 

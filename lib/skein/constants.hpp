@@ -18,6 +18,20 @@ inline constexpr double seconds_per_julian_year = days_per_julian_year * seconds
 // Standard gravity, for the rocket equation: 9.80665 m/s^2 (CGPM 1901, the conventional value).
 inline constexpr double standard_gravity_m_s2 = 9.80665;
 
+// J2000.0 as a Julian date, the origin of the day counts of the almanac Sun and of GMST (IAU 1976/1982
+// conventions; Astronomical Almanac, sec. B). Used with UTC for the day count (a 69 s offset from TT is
+// 0.0008 deg of solar motion).
+inline constexpr double j2000_julian_date = 2451545.0;
+// Mean obliquity of the ecliptic at J2000.0: 84381.406 arcsec = 23.4392794 deg (IAU 2006 precession,
+// Capitaine, Wallace and Chapront, A&A 412, 567, 2003). The one obliquity of every model that places the Sun
+// on a fixed ecliptic (Harris-Priester bulge, solar inclination drift); the low-precision almanac Sun keeps its
+// own slowly varying term, part of that published formula.
+inline constexpr double obliquity_j2000_rad = 84381.406 / 3600.0 * rad_per_deg;
+// Sun's gravitational parameter (km^3/s^2), IAU 2015 Resolution B3 nominal GM_sun = 1.3271244e20 m^3/s^2,
+// and the astronomical unit 149 597 870.7 km (IAU 2012 Resolution B2).
+inline constexpr double sun_mu_km3_s2 = 1.3271244e11;
+inline constexpr double astronomical_unit_km = 149597870.7;
+
 // The mean Sun's motion in right ascension: 360 deg per tropical year of 365.2422 days
 // (Astronomical Almanac, mean tropical year). This is the node rate a sun-synchronous orbit needs.
 inline constexpr double tropical_year_days = 365.2422;

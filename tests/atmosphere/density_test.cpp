@@ -82,9 +82,9 @@ TEST_CASE("orbit-averaged bulge weight matches its closed forms") {
   CHECK(harris_priester_mean_weight(53.0 * rad_per_deg, false, 0.0, 2.0) == doctest::Approx(0.5).epsilon(1e-12));
   CHECK(harris_priester_mean_weight(98.0 * rad_per_deg, true, 0.7, 2.0) == doctest::Approx(0.5).epsilon(1e-12));
   // For n = 4 and an equatorial orbit: w = (1 + <cos^2 psi>)/4 with <cos^2 psi> = cos^2(dec)/2 and, over a
-  // year, <cos^2 dec> = 1 - sin^2(eps)/2 (sin dec = sin eps sin lambda), eps = 23.44 deg. The midpoint rule
+  // year, <cos^2 dec> = 1 - sin^2(eps)/2 (sin dec = sin eps sin lambda), eps = 23.4392794 deg (IAU 2006). The midpoint rule
   // integrates these trigonometric polynomials exactly: tolerance 1e-9.
-  const double s2 = std::pow(std::sin(23.44 * rad_per_deg), 2);
+  const double s2 = std::pow(std::sin(84381.406 / 3600.0 * rad_per_deg), 2);
   CHECK(harris_priester_mean_weight(0.0, false, 0.0, 4.0) == doctest::Approx((1.0 + (1.0 - s2 / 2.0) / 2.0) / 4.0).epsilon(1e-9));
   // Exponent rule: 2 at the equator, 6 polar.
   CHECK(harris_priester_default_exponent(0.0) == doctest::Approx(2.0));

@@ -5,7 +5,7 @@
 #include <cmath>
 
 #include "skein/constants.hpp"
-#include "skein/orbit/propagate.hpp"
+#include "skein/angles.hpp"
 #include "skein/time/sun.hpp"
 
 using namespace skein;

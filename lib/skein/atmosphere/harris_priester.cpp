@@ -39,7 +39,6 @@ double interpolate(double h, double h0, double h1, double v0, double v1) {
   return v0 * std::exp((h0 - h) / scale);
 }
 
-constexpr double obliquity_rad = 23.44 * rad_per_deg;  // mean obliquity near J2000 (Astronomical Almanac)
 
 }  // namespace
 
@@ -73,8 +72,8 @@ double harris_priester_mean_weight(double i_rad, bool sun_locked, double node_mi
   double sum = 0.0;
   for (int s = 0; s < n_sun; ++s) {
     const double lambda = two_pi * (s + 0.5) / n_sun;  // Sun's ecliptic (= mean) longitude
-    const double sun_ra = std::atan2(std::cos(obliquity_rad) * std::sin(lambda), std::cos(lambda));
-    const double sun_dec = std::asin(std::sin(obliquity_rad) * std::sin(lambda));
+    const double sun_ra = std::atan2(std::cos(obliquity_j2000_rad) * std::sin(lambda), std::cos(lambda));
+    const double sun_dec = std::asin(std::sin(obliquity_j2000_rad) * std::sin(lambda));
     const Eigen::Vector3d apex = harris_priester_apex(sun_ra, sun_dec);
     for (int k = 0; k < nodes_used; ++k) {
       const double offset = sun_locked ? node_minus_mean_sun_rad : two_pi * (k + 0.5) / n_node;

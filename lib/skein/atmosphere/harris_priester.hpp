@@ -32,7 +32,7 @@ Eigen::Vector3d harris_priester_apex(double sun_ra_rad, double sun_dec_rad);
 // positions, for inclination i_rad. When sun_locked (sun-synchronous), the node keeps the fixed offset
 // node_minus_mean_sun_rad from the mean Sun; otherwise the node is taken uniformly over all offsets (it
 // drifts through every Sun angle within months). The orbit-averaged density is then
-// rho_min + w (rho_max - rho_min) at every altitude. Sun on a circular ecliptic of obliquity 23.44 deg
+// rho_min + w (rho_max - rho_min) at every altitude. Sun on a circular ecliptic of obliquity 23.439 deg (obliquity_j2000_rad)
 // (Astronomical Almanac low-precision Sun, common practice for averages).
 double harris_priester_mean_weight(double i_rad, bool sun_locked, double node_minus_mean_sun_rad, double exponent);
 

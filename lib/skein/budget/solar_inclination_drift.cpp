@@ -8,7 +8,7 @@ double solar_inclination_rate_rad_s(const EarthModel& earth, double a_km, double
   const double n = std::sqrt(earth.mu_km3_s2 / (a_km * a_km * a_km));
   const double ns2 = sun_mu_km3_s2 / (astronomical_unit_km * astronomical_unit_km * astronomical_unit_km);
   const double offset = (ltan_h - 12.0) * 15.0 * rad_per_deg;
-  const double ce = std::cos(ecliptic_obliquity_rad), se = std::sin(ecliptic_obliquity_rad);
+  const double ce = std::cos(obliquity_j2000_rad), se = std::sin(obliquity_j2000_rad);
   const double si = std::sin(i_rad), ci = std::cos(i_rad);
   // Midpoint rule over the year: the integrand is a trigonometric polynomial of low degree in lambda, so
   // 72 points are exact to rounding.

@@ -4,12 +4,6 @@
 
 namespace skein {
 
-// Sun's gravitational parameter (km^3/s^2), IAU 2015 Resolution B3 nominal GM_sun = 1.3271244e20 m^3/s^2,
-// and the astronomical unit 149 597 870.7 km (IAU 2012 Resolution B2).
-inline constexpr double sun_mu_km3_s2 = 1.3271244e11;
-inline constexpr double astronomical_unit_km = 149597870.7;
-inline constexpr double ecliptic_obliquity_rad = 23.43928 * rad_per_deg;  // J2000 (IAU 2006)
-
 // di/dt (rad/s) of a circular orbit of radius a_km and inclination i_rad whose node stays at the local
 // mean time ltan_h (hours) of the ascending node, from the Sun's quadrupole tide averaged over the orbit
 // and then over a year (Sun on a circular ecliptic; the node follows the mean Sun):

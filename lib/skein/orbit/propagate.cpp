@@ -5,15 +5,6 @@
 
 namespace skein {
 
-double wrap_two_pi(double angle_rad) {
-  double w = std::fmod(angle_rad, two_pi);
-  if (w < 0.0) w += two_pi;
-  if (w >= two_pi) w = 0.0;
-  return w;
-}
-
-double wrap_pi(double angle_rad) { return wrap_two_pi(angle_rad + pi) - pi; }
-
 double eccentric_anomaly_rad(double mean_anomaly_rad, double e) {
   assert(e >= 0.0 && e < 1.0);
   const double m = wrap_pi(mean_anomaly_rad);

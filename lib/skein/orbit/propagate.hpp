@@ -4,6 +4,7 @@
 // (precession over a mission span is ignored, a common-practice simplification for design work).
 #include <Eigen/Core>
 
+#include "skein/angles.hpp"
 #include "skein/constants.hpp"
 #include "skein/orbit/elements.hpp"
 #include "skein/orbit/secular.hpp"
@@ -42,10 +43,5 @@ StateVector state_at(const EarthModel& earth, const SecularOrbit& orbit, double 
 // Rotate an inertial vector into the Earth-fixed frame given the Greenwich sidereal angle theta (rad):
 // r_ecef = R3(theta) r_eci (polar motion and the equation of the equinoxes are neglected).
 Eigen::Vector3d inertial_to_earth_fixed(const Eigen::Vector3d& r_eci, double greenwich_angle_rad);
-
-// Wrap an angle to [0, 2 pi).
-double wrap_two_pi(double angle_rad);
-// Wrap an angle to [-pi, pi).
-double wrap_pi(double angle_rad);
 
 }  // namespace skein

@@ -4,7 +4,7 @@
 #include <vector>
 
 #include "skein/design/constellation.hpp"
-#include "skein/orbit/drift_summary.hpp"
+#include "skein/drift/drift_summary.hpp"
 #include "skein/report/table.hpp"
 
 namespace skein {

@@ -5,7 +5,7 @@
 #include "skein/design/constellation.hpp"
 #include "skein/export/geojson.hpp"
 #include "skein/export/oem.hpp"
-#include "skein/orbit/drift_summary.hpp"
+#include "skein/drift/drift_summary.hpp"
 #include "skein/report/budget_tables.hpp"
 #include "skein/report/coverage_tables.hpp"
 #include "skein/report/layout_tables.hpp"

@@ -123,7 +123,7 @@ UtcEpoch add_seconds(const UtcEpoch& epoch, double dt_s) {
 
 double greenwich_mean_sidereal_angle_rad(const JulianDate& jd) {
   // Centuries of UT1 since J2000.0 and the fraction of the UT1 day.
-  const double d = (jd.day - 2451545.0) + jd.fraction;
+  const double d = (jd.day - j2000_julian_date) + jd.fraction;
   const double t = d / 36525.0;
   // GMST in seconds of time (Aoki et al. 1982):
   // GMST(0h UT1) = 24110.54841 + 8640184.812866 T + 0.093104 T^2 - 6.2e-6 T^3 s, where T counts from J2000.0

@@ -3,12 +3,12 @@
 #include <cmath>
 
 #include "skein/constants.hpp"
-#include "skein/orbit/propagate.hpp"
+#include "skein/angles.hpp"
 
 namespace skein {
 
 SunPosition sun_position(const JulianDate& jd) {
-  const double n = (jd.day - 2451545.0) + jd.fraction;
+  const double n = (jd.day - j2000_julian_date) + jd.fraction;
   const double mean_lon_deg = 280.460 + 0.9856474 * n;
   const double g = (357.528 + 0.9856003 * n) * rad_per_deg;
   const double lambda = (mean_lon_deg + 1.915 * std::sin(g) + 0.020 * std::sin(2.0 * g)) * rad_per_deg;
@@ -22,7 +22,7 @@ SunPosition sun_position(const JulianDate& jd) {
 }
 
 double mean_sun_right_ascension_rad(const JulianDate& jd) {
-  const double n = (jd.day - 2451545.0) + jd.fraction;
+  const double n = (jd.day - j2000_julian_date) + jd.fraction;
   return wrap_two_pi((280.460 + 0.9856474 * n) * rad_per_deg);
 }
 

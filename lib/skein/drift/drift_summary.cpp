@@ -1,4 +1,4 @@
-#include "skein/orbit/drift_summary.hpp"
+#include "skein/drift/drift_summary.hpp"
 
 #include <cmath>
 
