@@ -166,20 +166,32 @@ SweepOutputs assemble_outputs(const Sweep& sweep, const LayoutSet& set, const st
   // (each its own colour in the legend).
   Series fails{"fails requirement", {}, {}, SeriesStyle::points};
   Series meets{"meets requirement", {}, {}, SeriesStyle::points};
-  Series trade_s{std::string(trade_front_name), {}, {}, SeriesStyle::points};
-  Series best_s{std::string(best_front_name), {}, {}, SeriesStyle::points};
+  // Short legend words: the legend column is about 118 px wide at 12 px (svg_plot.cpp margins); the title and
+  // the README give the full names.
+  // The fronts are drawn as lines through their members (ordered by x, then y), over the points of every
+  // layout, so that each set stands out from the cloud and from the other.
+  Series trade_s{"trade front", {}, {}, SeriesStyle::line};
+  Series best_s{"best front", {}, {}, SeriesStyle::line};
   auto add = [&](Series& s, size_t i) {
     s.x.push_back(sums[i].costs[0]);
     s.y.push_back(sums[i].figure);
   };
+  auto by_xy = [&](std::vector<size_t> v) {
+    std::sort(v.begin(), v.end(), [&](size_t a, size_t b) {
+      if (sums[a].costs[0] != sums[b].costs[0]) return sums[a].costs[0] < sums[b].costs[0];
+      if (sums[a].figure != sums[b].figure) return sums[a].figure < sums[b].figure;
+      return a < b;
+    });
+    return v;
+  };
   for (size_t i : evaluated) add(sums[i].meets ? meets : fails, i);
-  for (size_t i : trade) add(trade_s, i);
-  for (size_t i : best) add(best_s, i);
+  for (size_t i : by_xy(trade)) add(trade_s, i);
+  for (size_t i : by_xy(best)) add(best_s, i);
   std::vector<Series> series;
   for (Series* s : {&fails, &meets, &trade_s, &best_s})
     if (!s->x.empty()) series.push_back(std::move(*s));
   PlotAxes axes;
-  axes.title = fmt::format("{}: {} and {}", sweep.name, best_front_name, trade_front_name);
+  axes.title = fmt::format("{}: best front (passing) and trade front (all)", sweep.name);
   axes.x_label = cost_heading(sweep.costs.front());
   axes.y_label = figure_heading(sweep);
   // Ranges padded by 5 % so that no point sits on the frame.
