@@ -69,7 +69,7 @@ TEST_CASE("sweep: the cheapest passing layout, hand-built rows with a known answ
   // reported on the example sweep: row 1 fails the requirement (another threshold) yet dominates row 2 on
   // every objective, so a front over all rows drops row 2 and its first passing member is row 0.
   const std::vector<RowSummary> rows = {
-      row(0, true, 65.0, {32, 4615}),   // passes, but 290 m/s dearer than rows 2, 5, 7
+      row(0, true, 65.0, {32, 4615}),   // passes, but 290 m/s dearer than rows 2, 5, 6
       row(1, false, 62.0, {32, 4325}),  // fails; dominates row 2
       row(2, true, 58.0, {32, 4325}),   // the answer: least costs among passing rows, best figure among them
       row(3, false, 50.0, {24, 3000}),  // cheapest of all, fails
