@@ -166,7 +166,8 @@ void write_outputs(const Options& opt, const std::string& dir, const Sweep& swee
     note += fmt::format("cheapest layout meeting the requirement: {} ({}): {}\n", s.cheapest_meeting->layout,
                         walker_label(set.layouts[s.cheapest_meeting->layout]), figures_text(sweep, *s.cheapest_meeting));
   else
-    note += "no layout meets the requirement: the best front is empty\n";
+    note += fmt::format("no layout meets the requirement: the best front is empty; the {} is in trade_front.csv\n",
+                        trade_front_name);
   note += fmt::format("written: {}/results.csv, results.jsonl, best_front.csv, trade_front.csv{}\n", dir,
                       out.fronts_svg.empty() ? "" : ", fronts.svg");
   print_stderr(note);

@@ -37,4 +37,19 @@ grep -q "best front (meets requirement)" "$tmp/summary.txt" || fail "the summary
 grep -q "trade front (all layouts)" "$tmp/summary.txt" || fail "the summary does not name the trade front"
 grep -q ">best front</text>" "$tmp/out/fronts.svg" || fail "the plot has no best-front series"
 grep -q ">trade front</text>" "$tmp/out/fronts.svg" || fail "the plot has no trade-front series"
+# No passing layout: no answer is named, the best front is empty, the trade front still holds the layout.
+cat >"$tmp/none.yaml" <<YAML
+name: nothing passes
+base: $SOURCE_DIR/designs/demo.yaml
+shell: imaging
+coverage: {grid: {kind: global, spacing_deg: 15}, span_h: 2, step_s: 300}
+axes: {satellites: [12], planes: [3], phasing: [0]}
+requirement: {min_percent_covered: 99}
+YAML
+"$SKEIN" sweep "$tmp/none.yaml" --out "$tmp/none" >/dev/null 2>"$tmp/none.txt" || { cat "$tmp/none.txt"; fail "sweep with no passing layout"; }
+grep -q "^no layout meets the requirement: the best front is empty; the trade front (all layouts) is in trade_front.csv$" \
+  "$tmp/none.txt" || { cat "$tmp/none.txt"; fail "no passing layout: summary"; }
+grep -q "cheapest layout" "$tmp/none.txt" && fail "a cheapest layout was named though none passes"
+[ "$(wc -l <"$tmp/none/best_front.csv")" -eq 1 ] || fail "the best front is not empty"
+[ "$(wc -l <"$tmp/none/trade_front.csv")" -eq 2 ] || fail "the trade front does not hold the one layout"
 echo "sweep cheapest: the named layout equals the brute-force minimum"
