@@ -1,5 +1,6 @@
 // skein sweep SWEEP.yaml: evaluate many layouts of one shell (coverage and budget), keep every row in a
-// journal as it finishes, and write the results table and the best front. Runs on the cores of one machine
+// journal as it finishes, and write the results table, the best front (meets requirement) and the trade front
+// (all layouts). Runs on the cores of one machine
 // (TBB) and, started by an MPI launcher, over the ranks of a cluster (mpi_split).
 #include <unistd.h>
 
@@ -131,38 +132,52 @@ std::map<size_t, std::string> open_journal(const Options& opt, const std::string
   return rows;
 }
 
+// "satellites 32, fleet_dv_m_s 4325.12, percent_covered 57.3" for the summary line.
+std::string figures_text(const Sweep& sweep, const RowSummary& row) {
+  std::string text;
+  for (size_t k = 0; k < sweep.costs.size(); ++k)
+    text += fmt::format("{}{} {}", k ? ", " : "", to_string(sweep.costs[k]),
+                        sweep.costs[k] == CostFigure::satellites ? fmt::format("{:.0f}", row.costs[k])
+                                                                 : fmt::format("{:.2f}", row.costs[k]));
+  return text + fmt::format(", {} {:.3f}", to_string(sweep.requirement.figure), row.figure);
+}
+
 void write_outputs(const Options& opt, const std::string& dir, const Sweep& sweep, const LayoutSet& set,
                    const std::map<size_t, std::string>& rows, long resumed, long damaged) {
   const SweepOutputs out = assemble_outputs(sweep, set, rows);
   namespace fs = std::filesystem;
   write_file_atomic((fs::path(dir) / "results.csv").string(), out.results_csv);
   write_file_atomic((fs::path(dir) / "results.jsonl").string(), out.results_jsonl);
-  write_file_atomic((fs::path(dir) / "front.csv").string(), out.front_csv);
-  if (!out.front_svg.empty()) write_file_atomic((fs::path(dir) / "front.svg").string(), out.front_svg);
+  write_file_atomic((fs::path(dir) / "best_front.csv").string(), out.best_front_csv);
+  write_file_atomic((fs::path(dir) / "trade_front.csv").string(), out.trade_front_csv);
+  if (!out.fronts_svg.empty()) write_file_atomic((fs::path(dir) / "fronts.svg").string(), out.fronts_svg);
   const SweepSummary& s = out.summary;
   std::string note = fmt::format(
       "sweep {}: {} layouts ({} resumed from the journal{}), {} evaluated, {} refused by an evaluator, {} meet the "
-      "requirement, {} on the best front\n",
+      "requirement; {} on the {}, {} on the {}\n",
       sweep.name, s.layouts, resumed, damaged ? fmt::format(", {} damaged journal lines recomputed", damaged) : "",
-      s.evaluated, s.errors, s.meeting, s.front);
+      s.evaluated, s.errors, s.meeting, s.best_front, best_front_name, s.trade_front, trade_front_name);
   if (s.skipped.total() > 0)
     note += fmt::format("skipped combinations: {} (P not dividing T: {}, F outside 0..P-1: {}, no sun-synchronous "
                         "inclination: {}, fold above the satellite count: {})\n",
                         s.skipped.total(), s.skipped.planes_not_dividing, s.skipped.phasing_out_of_range,
                         s.skipped.no_sun_synchronous, s.skipped.fold_above_satellites);
   if (s.cheapest_meeting)
-    note += fmt::format("cheapest layout meeting the requirement: {} ({})\n", *s.cheapest_meeting,
-                        walker_label(set.layouts[*s.cheapest_meeting]));
+    note += fmt::format("cheapest layout meeting the requirement: {} ({}): {}\n", s.cheapest_meeting->layout,
+                        walker_label(set.layouts[s.cheapest_meeting->layout]), figures_text(sweep, *s.cheapest_meeting));
   else
-    note += "no layout meets the requirement\n";
-  note += fmt::format("written: {}/results.csv, results.jsonl, front.csv{}\n", dir, out.front_svg.empty() ? "" : ", front.svg");
+    note += fmt::format("no layout meets the requirement: the best front is empty; the {} is in trade_front.csv\n",
+                        trade_front_name);
+  note += fmt::format("written: {}/results.csv, results.jsonl, best_front.csv, trade_front.csv{}\n", dir,
+                      out.fronts_svg.empty() ? "" : ", fronts.svg");
   print_stderr(note);
   print_stderr(caution);
+  // Standard output: the best front (meets requirement), cheapest first.
   const OutputFormat f = format_of(opt.format);
   if (f == OutputFormat::json)
-    print_stdout(render(out.front, f) + "\n");
+    print_stdout(render(out.best_front, f) + "\n");
   else
-    print_stdout(render(out.front, f));
+    print_stdout(render(out.best_front, f));
 }
 
 void run(const Options& opt) {
@@ -290,8 +305,9 @@ void add_sweep_command(CLI::App& app) {
   auto opt = std::make_shared<Options>();
   CLI::App* cmd = app.add_subcommand(
       "sweep", "Trade sweep: evaluate coverage and budget for every layout of a sweep file's axes (T, P, F, altitude, "
-               "inclination or sun-synchronous node times, elevation mask), mark the layouts meeting the requirement "
-               "and rank the best front of requirement figure against cost. Start it with an MPI launcher "
+               "inclination or sun-synchronous node times, elevation mask), mark the layouts meeting the requirement, "
+               "name the cheapest layout meeting the requirement and the best front (meets requirement) of requirement figure "
+               "against cost, beside the trade front over all layouts. Start it with an MPI launcher "
                "(mpirun -n N skein sweep ...) to split the layouts over ranks");
   cmd->add_option("sweep", opt->sweep, "Sweep file (YAML)")->required();
   cmd->add_option("--out", opt->out, "Output folder (default: SWEEP-NAME-results in the current folder)");

@@ -16,7 +16,7 @@ fail() { echo "FAIL: $*"; exit 1; }
 [ "$(wc -l <"$tmp/full/results.jsonl")" -eq 72 ] || fail "expected 72 rows"
 [ "$(wc -l <"$tmp/full/results.csv")" -eq 73 ] || fail "expected a header and 72 CSV rows"
 grep -q "skipped combinations: 36" "$tmp/full.err" || fail "skipped count not reported"
-grep -q "<svg" "$tmp/full/front.svg" || fail "no front plot"
+grep -q "<svg" "$tmp/full/fronts.svg" || fail "no front plot"
 
 # 1. Layouts 0 and 1 (SSO 10:30 and 13:30, 12/3/0 at 520 km) and 70 (24/4/3 at 580 km, SSO 13:30).
 "$py" "$SOURCE_DIR/tests/sweep/compare_commands.py" "$SKEIN" "$SOURCE_DIR" "$tmp/full/results.jsonl" "$tmp" 0 1 70 ||
@@ -43,7 +43,7 @@ grep -q -- "--resume" "$tmp/refused.err" || fail "refusal does not name --resume
 grep -q "($done_rows resumed from the journal, 1 damaged journal lines recomputed)" "$tmp/resume.err" ||
   { cat "$tmp/resume.err"; fail "resume did not keep the $done_rows finished rows"; }
 [ "$(($(wc -l <"$tmp/cut/journal.txt") - 1))" -eq 72 ] || fail "the journal does not hold each layout once"
-for f in results.csv results.jsonl front.csv front.svg; do
+for f in results.csv results.jsonl best_front.csv trade_front.csv fronts.svg; do
   cmp -s "$tmp/full/$f" "$tmp/cut/$f" || fail "$f after kill and resume differs from the uninterrupted run"
 done
 

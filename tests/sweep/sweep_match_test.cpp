@@ -5,6 +5,7 @@
 
 #include <fmt/format.h>
 
+#include <cmath>
 #include <fstream>
 #include <sstream>
 #include <string>
@@ -101,6 +102,19 @@ TEST_CASE("sweep: rows equal evaluate_coverage and compute_budget on each layout
     // The requirement (min 55 % covered, max gap 10000 s) re-derived from the evaluator's numbers.
     const bool meets = c.total.percent_by_fold[0] >= 55.0 && c.total.max_gap_s <= 10000.0;
     CHECK(std::get<std::string>((*cells)[col("meets_requirement")]) == (meets ? "yes" : "no"));
+    // The cap-area bound (global grid, fold 1), re-derived with the equivalent form of SMAD sec. 5.2's central
+    // angle, lambda = acos(R cos eps / r) - eps, on each shell's apogee radius: caps' sphere shares summed over
+    // the other shell, and the least T of the varied one. And a consequence the simulation must obey: at each
+    // instant the covered share is at most the caps' summed share, so percent covered <= 100 x that sum
+    // (plus 2 points for the 10 deg grid's cell weighting and the ellipsoid against the sphere: common practice).
+    const double eps_rad = l.min_elevation_deg * rad_per_deg;
+    auto cap = [&](const Shell& sh) {
+      const double lambda = std::acos(d.earth.radius_km * std::cos(eps_rad) / (sh.a_km * (1.0 + sh.e))) - eps_rad;
+      return 0.5 * (1.0 - std::cos(lambda));
+    };
+    const double others = d.shells[1].satellites * cap(d.shells[1]);
+    CHECK(num((*cells)[col("cap_bound_satellites")]) == std::ceil((1.0 - others) / cap(d.shells[0])));
+    CHECK(c.total.percent_by_fold[0] <= 100.0 * (others + d.shells[0].satellites * cap(d.shells[0])) + 2.0);
   }
 }
 

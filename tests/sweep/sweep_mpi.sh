@@ -11,7 +11,7 @@ fail() { echo "FAIL: $*"; exit 1; }
 "$MPIEXEC" --allow-run-as-root --oversubscribe -n 2 "$SKEIN" sweep "$sweep" --out "$tmp/two" --threads 1 \
   >"$tmp/two.out" 2>"$tmp/two.err" || { cat "$tmp/two.err"; fail "mpirun -n 2"; }
 grep -q "over 2 ranks" "$tmp/two.err" || { cat "$tmp/two.err"; fail "the run was not split over 2 ranks"; }
-for f in results.csv results.jsonl front.csv front.svg; do
+for f in results.csv results.jsonl best_front.csv trade_front.csv fronts.svg; do
   cmp -s "$tmp/one/$f" "$tmp/two/$f" || fail "$f from 2 ranks differs from one process"
 done
 echo "sweep MPI: 2 ranks wrote the same files as one process"

@@ -104,3 +104,24 @@ TEST_CASE("sweep: bad input is refused with its position") {
   CHECK(error_of(sweep_text("  altitude_km: [20]\n")).find("below 100 km") != std::string::npos);
   CHECK(error_of(sweep_text("  planes: [3, 3]\n")).find("appears twice") != std::string::npos);
 }
+
+TEST_CASE("sweep: an unknown shell, a fold no layout can reach and a design file are refused at their key") {
+  // The varied shell's name, with the nearest name offered (line 3, column 8: the value of shell).
+  CHECK(error_of("name: t\nbase: ../demo.yaml\nshell: imagin\naxes:\n  planes: [3]\nrequirement:\n  max_gap_s: 1\n") ==
+        "s.yaml:3:8: shell: the base design has no shell \"imagin\"; expected one of its shells (did you mean "
+        "\"imaging\"?)");
+  // The largest satellite count of a layout: the largest T (6) plus the relay shell's 8 = 14. Fold 15 is
+  // refused; fold 14 is accepted, and the T = 3 layout (11 satellites) is skipped and counted, not refused.
+  const std::string small_t = "  satellites: [3, 6]\n  planes: [3]\n  phasing: [0]\n";
+  const std::string e = error_of("name: t\nbase: ../demo.yaml\nshell: imaging\naxes:\n" + small_t +
+                                 "requirement:\n  fold: 15\n  min_percent_covered: 50\n");
+  CHECK(e == "s.yaml:9:9: requirement.fold: fold 15 is larger than any layout's satellite count (at most 14: 6 in "
+             "shell imaging and 8 in the other shells); expected a fold from 1 to 14");
+  CHECK(error_of("name: t\nbase: ../demo.yaml\nshell: imaging\naxes:\n  satellites: [3, 6]\n  planes: [3]\n"
+                 "  phasing: [0]\nrequirement:\n  fold: 14\n  min_percent_covered: 50\n",
+                 true) == "");
+  // A design file given as a sweep: named as such at its shells key.
+  CHECK(error_of("name: d\nepoch: 2027-03-01T00:00:00Z\nshells:\n  - name: a\n") ==
+        "s.yaml:3:1: (top level): this is a design file (it has shells, no base or axes), not a sweep; run skein "
+        "check, coverage, budget or report on it, or give skein sweep a sweep file (name, base, axes, requirement)");
+}

@@ -171,6 +171,11 @@ Shell read_shell(const std::string& file, const YAML::Node& node, const std::str
 }
 
 Design read_design(const YAML::Node& root_node, const std::string& file) {
+  // A sweep file given where a design is expected: say what it is instead of "unknown key base".
+  if (root_node.IsMap() && !root_node["shells"] && (root_node["base"] || root_node["axes"]))
+    yaml::fail_at(file, yaml::key_node(root_node, root_node["base"] ? "base" : "axes"), "",
+                  "this is a sweep file (it has base and axes, no shells), not a design; run skein sweep on it, or "
+                  "give this command a design file");
   const MapReader root(file, root_node, "", {"name", "epoch", "earth", "spacecraft", "shells", "coverage", "budget"});
   Design d;
   d.file = file;

@@ -275,6 +275,13 @@ YAML::Node load_file(const std::string& path) {
   return load_text(text, path);
 }
 
+YAML::Node key_node(const YAML::Node& map, std::string_view key) {
+  if (map.IsMap())
+    for (auto it = map.begin(); it != map.end(); ++it)
+      if (it->first.IsScalar() && it->first.Scalar() == key) return it->first;
+  return YAML::Node(YAML::NodeType::Undefined);
+}
+
 void fail_at(const std::string& file, const YAML::Node& at, const std::string& path, const std::string& message) {
   const YAML::Mark mark = at.IsDefined() ? at.Mark() : YAML::Mark::null_mark();
   throw InputError(fmt::format("{}: {}: {}", location(file, mark), path.empty() ? "(top level)" : path, message));

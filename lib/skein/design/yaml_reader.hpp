@@ -83,6 +83,9 @@ class MapReader {
   std::string path_;
 };
 
+// The key node of `key` in the mapping `map` (for the key's own position in a message), or an undefined node.
+YAML::Node key_node(const YAML::Node& map, std::string_view key);
+
 // Scalar helpers for items of sequences.
 double scalar_number(const std::string& file, const YAML::Node& node, const std::string& path, double min, double max,
                      std::string_view what);

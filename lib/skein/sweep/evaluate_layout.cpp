@@ -5,6 +5,7 @@
 #include <fmt/format.h>
 
 #include "skein/budget/budget.hpp"
+#include "skein/coverage/cap_bound.hpp"
 #include "skein/coverage/evaluate.hpp"
 #include "skein/error.hpp"
 
@@ -43,6 +44,7 @@ LayoutMetrics evaluate_layout(const Sweep& sweep, const Layout& layout, const La
     const BudgetResult bud = compute_budget(design, bopt);
     const size_t k = static_cast<size_t>(sweep.requirement.fold - 1);
     m.percent_covered = cov.total.percent_by_fold.at(k);
+    m.cap_bound_satellites = cap_bound_satellites(design, sweep.shell_index, sweep.requirement.fold);
     m.worst_instant_percent = cov.worst_instant_covered_percent.at(k);
     m.max_gap_s = cov.total.max_gap_s;
     m.mean_gap_s = cov.total.mean_gap_s;

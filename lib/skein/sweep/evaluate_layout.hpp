@@ -22,6 +22,9 @@ struct LayoutMetrics {
   int design_satellites = 0;         // every shell
   // coverage, over the design's (or the sweep's) grid, area-weighted; fold k = requirement.fold
   double percent_covered = 0.0;      // at fold k
+  // cap-area lower bound (coverage/cap_bound.hpp): the least T of the varied shell, the other shells as they
+  // are, that could cover the grid continuously at fold k; none for region and site grids
+  std::optional<long> cap_bound_satellites;
   double worst_instant_percent = 0.0;  // at fold k
   double max_gap_s = 0.0, mean_gap_s = 0.0, p95_gap_s = 0.0, mean_response_time_s = 0.0;  // fold 1
   double mean_in_view = 0.0;

@@ -42,6 +42,7 @@ std::vector<Column> sweep_columns(const Sweep& sweep) {
       {"design_satellites", "design satellites", "", 0},
       {"status", "status", "", 0},
       {"percent_covered", "covered k>=" + k, "%", 3},
+      {"cap_bound_satellites", "cap bound T k>=" + k, "", 0},
       {"worst_instant_percent", "worst instant k>=" + k, "%", 3},
       {"max_gap_s", "max gap", "s", 1},
       {"mean_gap_s", "mean gap", "s", 1},
@@ -79,14 +80,15 @@ std::vector<Cell> layout_row([[maybe_unused]] const Sweep& sweep, const Layout& 
     for (const auto& f : m.failed) failed += (failed.empty() ? "" : "; ") + f;
     std::string note;
     if (m.lifetime_lower_bound) note = "natural lifetime is a lower bound (outlives the horizon)";
-    for (Cell c : {Cell(m.percent_covered), Cell(m.worst_instant_percent), Cell(m.max_gap_s), Cell(m.mean_gap_s),
+    const Cell cap = m.cap_bound_satellites ? Cell(*m.cap_bound_satellites) : Cell();
+    for (Cell c : {Cell(m.percent_covered), cap, Cell(m.worst_instant_percent), Cell(m.max_gap_s), Cell(m.mean_gap_s),
                    Cell(m.p95_gap_s), Cell(m.mean_response_time_s), Cell(m.mean_in_view), Cell(m.lifetime_days),
                    Cell(m.dv_per_satellite_m_s), Cell(m.fleet_dv_m_s), opt(m.propellant_per_satellite_kg),
                    opt(m.fleet_propellant_kg), yes_no(m.exceeds_tank), yes_no(m.meets),
                    failed.empty() ? Cell() : Cell(failed), note.empty() ? Cell() : Cell(note)})
       row.push_back(c);
   } else {
-    for (int i = 0; i < 15; ++i) row.emplace_back();
+    for (int i = 0; i < 16; ++i) row.emplace_back();
     row.emplace_back(m.error);
   }
   assert(row.size() == sweep_columns(sweep).size());

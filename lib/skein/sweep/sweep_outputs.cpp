@@ -7,6 +7,7 @@
 
 #include "skein/report/svg_plot.hpp"
 #include "skein/sweep/pareto.hpp"
+#include "skein/sweep/ranking.hpp"
 #include "skein/sweep/results_rows.hpp"
 
 namespace skein {
@@ -47,6 +48,52 @@ Column cost_column(CostFigure c) {
   return {};
 }
 
+// The Pareto set of the rows at `candidates` on (figure, every cost), all minimised (higher-is-better figures
+// negated); returned ranked by ranks_before.
+std::vector<size_t> front_of(const Sweep& sweep, const std::vector<RowSummary>& sums, const std::vector<size_t>& candidates) {
+  const double sign = higher_is_better(sweep.requirement.figure) ? -1.0 : 1.0;
+  std::vector<std::vector<double>> objectives;
+  for (size_t i : candidates) {
+    std::vector<double> o = {sign * sums[i].figure};
+    o.insert(o.end(), sums[i].costs.begin(), sums[i].costs.end());
+    objectives.push_back(std::move(o));
+  }
+  std::vector<size_t> front;
+  for (size_t k : pareto_front(objectives)) front.push_back(candidates[k]);
+  std::sort(front.begin(), front.end(),
+            [&](size_t a, size_t b) { return ranks_before(sums[a], sums[b], sweep.requirement.figure); });
+  return front;
+}
+
+Table front_table(const Sweep& sweep, const LayoutSet& set, const std::vector<RowSummary>& sums,
+                  const std::vector<size_t>& members, std::string_view name, bool with_meets) {
+  Table t;
+  std::string costs;
+  for (CostFigure c : sweep.costs) costs += (costs.empty() ? "" : ", ") + std::string(to_string(c));
+  t.title = fmt::format("Sweep {}: {}, {} against {}, cheapest first", sweep.name, name,
+                        to_string(sweep.requirement.figure), costs);
+  t.columns = {{"layout", "layout", "", 0},          {"walker", "T/P/F", "", 0},
+               {"altitude_km", "altitude", "km", 1},  {"inclination_deg", "inclination", "deg", 3},
+               {"ltan", "LTAN", "", 0},               {"min_elevation_deg", "elevation mask", "deg", 1},
+               {std::string(to_string(sweep.requirement.figure)), std::string(to_string(sweep.requirement.figure)), "", 3}};
+  for (CostFigure c : sweep.costs) t.columns.push_back(cost_column(c));
+  if (with_meets) t.columns.push_back({"meets_requirement", "meets requirement", "", 0});
+  for (size_t i : members) {
+    const Layout& l = set.layouts[sums[i].layout];
+    std::vector<Cell> r = {static_cast<long>(l.index), walker_label(l), l.altitude_km, l.inclination_deg,
+                           l.ltan ? Cell(l.ltan->text) : Cell(), l.min_elevation_deg, sums[i].figure};
+    for (size_t k = 0; k < sweep.costs.size(); ++k) {
+      if (sweep.costs[k] == CostFigure::satellites)
+        r.emplace_back(static_cast<long>(sums[i].costs[k]));
+      else
+        r.emplace_back(sums[i].costs[k]);
+    }
+    if (with_meets) r.emplace_back(std::string(sums[i].meets ? "yes" : "no"));
+    t.add_row(std::move(r));
+  }
+  return t;
+}
+
 }  // namespace
 
 SweepOutputs assemble_outputs(const Sweep& sweep, const LayoutSet& set, const std::map<size_t, std::string>& rows) {
@@ -64,92 +111,87 @@ SweepOutputs assemble_outputs(const Sweep& sweep, const LayoutSet& set, const st
     auto c = decode_row(text, cols.size());
     assert(c && "rows are checked when read");
     sums.push_back(summarize_row(sweep, *c));
+    assert(sums.back().layout == index && index == sums.size() - 1);
     cells.push_back(std::move(*c));
   }
 
-  // The front over the evaluated rows: every objective minimised (higher-is-better figures negated).
-  std::vector<size_t> evaluated;
-  std::vector<std::vector<double>> objectives;
-  const double sign = higher_is_better(sweep.requirement.figure) ? -1.0 : 1.0;
+  std::vector<size_t> evaluated, meeting;
   for (size_t i = 0; i < sums.size(); ++i) {
     if (!sums[i].evaluated) {
       ++out.summary.errors;
       continue;
     }
-    ++out.summary.evaluated;
-    if (sums[i].meets) ++out.summary.meeting;
     evaluated.push_back(i);
-    std::vector<double> o = {sign * sums[i].figure};
-    o.insert(o.end(), sums[i].costs.begin(), sums[i].costs.end());
-    objectives.push_back(std::move(o));
+    if (sums[i].meets) meeting.push_back(i);
   }
-  std::vector<bool> on_front(sums.size(), false);
-  for (size_t k : pareto_front(objectives)) on_front[evaluated[k]] = true;
+  out.summary.evaluated = evaluated.size();
+  out.summary.meeting = meeting.size();
+  const std::vector<size_t> best = front_of(sweep, sums, meeting);
+  const std::vector<size_t> trade = front_of(sweep, sums, evaluated);
+  out.summary.best_front = best.size();
+  out.summary.trade_front = trade.size();
+  if (const auto c = cheapest_meeting(sums, sweep.requirement.figure)) {
+    out.summary.cheapest_meeting = sums[*c];
+    // The lexicographic minimum is not dominated by any passing layout, so it heads the best front.
+    assert(!best.empty() && best.front() == *c);
+  }
+  std::vector<bool> on_best(sums.size(), false), on_trade(sums.size(), false);
+  for (size_t i : best) on_best[i] = true;
+  for (size_t i : trade) on_trade[i] = true;
 
   out.results.title = fmt::format("Sweep {}: layouts of shell {}", sweep.name, shell);
   out.results.columns = cols;
-  out.results.columns.push_back({"front", "on front", "", 0});
+  out.results.columns.push_back({"best_front", "best front", "", 0});
+  out.results.columns.push_back({"trade_front", "trade front", "", 0});
   for (size_t i = 0; i < cells.size(); ++i) {
     std::vector<Cell> r = cells[i];
-    if (sums[i].evaluated)
-      r.emplace_back(std::string(on_front[i] ? "yes" : "no"));
-    else
+    if (sums[i].evaluated) {
+      r.emplace_back(std::string(on_best[i] ? "yes" : "no"));
+      r.emplace_back(std::string(on_trade[i] ? "yes" : "no"));
+    } else {
       r.emplace_back();
+      r.emplace_back();
+    }
     out.results.add_row(std::move(r));
   }
 
-  // The front table, cheapest first (first cost, then the figure best first, then layout).
-  std::vector<size_t> front;
-  for (size_t i = 0; i < sums.size(); ++i)
-    if (on_front[i]) front.push_back(i);
-  std::sort(front.begin(), front.end(), [&](size_t a, size_t b) {
-    if (sums[a].costs[0] != sums[b].costs[0]) return sums[a].costs[0] < sums[b].costs[0];
-    if (sums[a].figure != sums[b].figure) return sign * sums[a].figure < sign * sums[b].figure;
-    return a < b;
-  });
-  out.summary.front = front.size();
-  out.front.title = fmt::format("Sweep {}: best front, {} against {}", sweep.name, to_string(sweep.requirement.figure),
-                                to_string(sweep.costs.front()));
-  out.front.columns = {{"layout", "layout", "", 0},          {"walker", "T/P/F", "", 0},
-                       {"altitude_km", "altitude", "km", 1},  {"inclination_deg", "inclination", "deg", 3},
-                       {"ltan", "LTAN", "", 0},               {"min_elevation_deg", "elevation mask", "deg", 1},
-                       {std::string(to_string(sweep.requirement.figure)), "figure", "", 3}};
-  out.front.columns.back().heading = to_string(sweep.requirement.figure);
-  for (CostFigure c : sweep.costs) out.front.columns.push_back(cost_column(c));
-  out.front.columns.push_back({"meets_requirement", "meets requirement", "", 0});
-  for (size_t i : front) {
-    const Layout& l = set.layouts[sums[i].layout];
-    std::vector<Cell> r = {static_cast<long>(l.index), walker_label(l), l.altitude_km, l.inclination_deg,
-                           l.ltan ? Cell(l.ltan->text) : Cell(), l.min_elevation_deg, sums[i].figure};
-    for (size_t k = 0; k < sweep.costs.size(); ++k)
-      r.push_back(sweep.costs[k] == CostFigure::satellites ? Cell(static_cast<long>(sums[i].costs[k])) : Cell(sums[i].costs[k]));
-    r.emplace_back(std::string(sums[i].meets ? "yes" : "no"));
-    out.front.add_row(std::move(r));
-    if (sums[i].meets && !out.summary.cheapest_meeting) out.summary.cheapest_meeting = l.index;
-  }
-
+  out.best_front = front_table(sweep, set, sums, best, best_front_name, false);
+  out.trade_front = front_table(sweep, set, sums, trade, trade_front_name, true);
   out.results_csv = render_csv(out.results);
   for (const auto& j : rows_to_json(out.results)) out.results_jsonl += j.dump() + "\n";
-  out.front_csv = render_csv(out.front);
+  out.best_front_csv = render_csv(out.best_front);
+  out.trade_front_csv = render_csv(out.trade_front);
 
-  // Scatter: every evaluated layout, marked by the requirement, and the front on top.
+  // Scatter: every evaluated layout, marked by the requirement, then the trade front and the best front on top
+  // (each its own colour in the legend).
   Series fails{"fails requirement", {}, {}, SeriesStyle::points};
   Series meets{"meets requirement", {}, {}, SeriesStyle::points};
-  Series best{"best front", {}, {}, SeriesStyle::points};
-  for (size_t i : evaluated) {
-    Series& s = sums[i].meets ? meets : fails;
+  // Short legend words: the legend column is about 118 px wide at 12 px (svg_plot.cpp margins); the title and
+  // the README give the full names.
+  // The fronts are drawn as lines through their members (ordered by x, then y), over the points of every
+  // layout, so that each set stands out from the cloud and from the other.
+  Series trade_s{"trade front", {}, {}, SeriesStyle::line};
+  Series best_s{"best front", {}, {}, SeriesStyle::line};
+  auto add = [&](Series& s, size_t i) {
     s.x.push_back(sums[i].costs[0]);
     s.y.push_back(sums[i].figure);
-  }
-  for (size_t i : front) {
-    best.x.push_back(sums[i].costs[0]);
-    best.y.push_back(sums[i].figure);
-  }
+  };
+  auto by_xy = [&](std::vector<size_t> v) {
+    std::sort(v.begin(), v.end(), [&](size_t a, size_t b) {
+      if (sums[a].costs[0] != sums[b].costs[0]) return sums[a].costs[0] < sums[b].costs[0];
+      if (sums[a].figure != sums[b].figure) return sums[a].figure < sums[b].figure;
+      return a < b;
+    });
+    return v;
+  };
+  for (size_t i : evaluated) add(sums[i].meets ? meets : fails, i);
+  for (size_t i : by_xy(trade)) add(trade_s, i);
+  for (size_t i : by_xy(best)) add(best_s, i);
   std::vector<Series> series;
-  for (Series* s : {&fails, &meets, &best})
+  for (Series* s : {&fails, &meets, &trade_s, &best_s})
     if (!s->x.empty()) series.push_back(std::move(*s));
   PlotAxes axes;
-  axes.title = fmt::format("{}: best front", sweep.name);
+  axes.title = fmt::format("{}: best front (passing) and trade front (all)", sweep.name);
   axes.x_label = cost_heading(sweep.costs.front());
   axes.y_label = figure_heading(sweep);
   // Ranges padded by 5 % so that no point sits on the frame.
@@ -168,7 +210,7 @@ SweepOutputs assemble_outputs(const Sweep& sweep, const LayoutSet& set, const st
   axes.x_max = x1 + px;
   axes.y_min = y0 - py;
   axes.y_max = y1 + py;
-  out.front_svg = series.empty() ? std::string() : line_plot_svg(axes, series);
+  out.fronts_svg = series.empty() ? std::string() : line_plot_svg(axes, series);
   return out;
 }
 

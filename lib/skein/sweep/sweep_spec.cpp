@@ -213,13 +213,26 @@ SweepAxes read_axes(const MapReader& root, const Sweep& sw) {
   return ax;
 }
 
-Requirement read_requirement(const MapReader& root, const Design& base) {
+Requirement read_requirement(const MapReader& root, const Sweep& sw) {
+  const Design& base = sw.base;
+  // The most satellites a layout can hold: the other shells' satellites plus the largest T of the axis.
+  const int largest_t = *std::max_element(sw.axes.satellites.begin(), sw.axes.satellites.end());
+  int others = 0;
+  for (size_t s = 0; s < base.shells.size(); ++s)
+    if (s != sw.shell_index) others += base.shells[s].satellites;
   if (!root.has("requirement"))
     root.fail(root.self(), root.path(), "missing key requirement; expected e.g. requirement: {min_percent_covered: 90}");
   const MapReader m = root.map("requirement", {"fold", "min_percent_covered", "min_worst_instant_percent", "max_gap_s",
                                                "max_p95_gap_s", "max_mean_response_time_s", "figure", "within_tank"});
   Requirement r;
   r.fold = static_cast<int>(m.optional_integer("fold", 1, 16, "a coverage fold k from 1 to 16").value_or(1));
+  // Layouts whose own count is below the fold are skipped and counted; a fold above every layout's count
+  // leaves nothing to evaluate, and is said here, at the fold, rather than as "no valid layout".
+  if (r.fold > largest_t + others)
+    m.fail_key("fold", fmt::format("fold {} is larger than any layout's satellite count (at most {}: {} in shell {} "
+                                   "and {} in the other shells); expected a fold from 1 to {}",
+                                   r.fold, largest_t + others, largest_t, base.shells[sw.shell_index].name, others,
+                                   largest_t + others));
   struct Key {
     const char* key;
     RequirementFigure figure;
@@ -276,6 +289,11 @@ std::vector<CostFigure> read_costs(const MapReader& root, const Design& base) {
 }
 
 Sweep read_sweep(const YAML::Node& node, const std::string& file, const std::string& folder, const std::string& text) {
+  // A design file given to skein sweep: say what it is instead of "unknown key epoch".
+  if (node.IsMap() && !node["base"] && !node["axes"] && (node["shells"] || node["epoch"]))
+    yaml::fail_at(file, yaml::key_node(node, node["shells"] ? "shells" : "epoch"), "",
+                  "this is a design file (it has shells, no base or axes), not a sweep; run skein check, coverage, "
+                  "budget or report on it, or give skein sweep a sweep file (name, base, axes, requirement)");
   const MapReader root(file, node, "", {"name", "base", "shell", "coverage", "axes", "requirement", "cost"});
   Sweep sw;
   sw.file = file;
@@ -300,7 +318,7 @@ Sweep read_sweep(const YAML::Node& node, const std::string& file, const std::str
                                          yaml::quote_for_message(shell),
                                          yaml::closest_match(shell, names).empty()
                                              ? std::string()
-                                             : " (did you mean " + yaml::closest_match(shell, names) + "?)"));
+                                             : " (did you mean \"" + yaml::closest_match(shell, names) + "\"?)"));
     }
     sw.shell_index = static_cast<size_t>(it - sw.base.shells.begin());
   }
@@ -311,7 +329,7 @@ Sweep read_sweep(const YAML::Node& node, const std::string& file, const std::str
   if (root.has("coverage")) sw.base.coverage = read_coverage_spec(root);
   sw.axes = read_axes(root, sw);
   sw.axes_location = yaml::location(file, root.node("axes").Mark());
-  sw.requirement = read_requirement(root, sw.base);
+  sw.requirement = read_requirement(root, sw);
   sw.costs = read_costs(root, sw.base);
   std::uint64_t h = fnv1a64(text);
   h = fnv1a64(read_whole_file(sw.base_file), h);
