@@ -128,7 +128,9 @@ void check_sweep_folder(const Options& opt, const std::string& dir, const Sweep&
 // Rank 0 (or the only process): the journal's finished rows, after checking and compacting it.
 std::map<size_t, std::string> open_journal(const Options& opt, const std::string& dir, const Sweep& sweep,
                                            const LayoutSet& set, long* damaged) {
-  check_sweep_folder(opt, dir, sweep);  // again, right before anything is written
+  // Before any layout is evaluated or anything written; rank 0 only (the others would race its marker), and
+  // a refusal reaches the other ranks through the status broadcast.
+  check_sweep_folder(opt, dir, sweep);
   std::error_code ec;
   std::filesystem::create_directories(dir, ec);
   if (ec || !std::filesystem::is_directory(dir))
@@ -212,7 +214,6 @@ void run(const Options& opt) {
   double estimate_s = 0.0;
   try {
     sweep = read_sweep_file(opt.sweep);
-    check_sweep_folder(opt, out_dir(opt), sweep);  // before any work
     set = expand_layouts(sweep, opt.force ? hard_max_layouts : default_max_layouts);
     estimate_s = estimate_sweep_seconds(sweep, set, eval);
   } catch (const InputError&) {
