@@ -79,6 +79,10 @@ expect 2 "contains the input file" -- "$SKEIN" sweep sw/designs/sweeps/kestrel-s
 mkdir sfor && echo "results of mine" > sfor/results.csv
 expect 2 "was not written by skein" -- "$SKEIN" sweep sw/designs/sweeps/kestrel-small.yaml --out sfor
 [ "$(cat sfor/results.csv)" = "results of mine" ] && [ ! -e sfor/journal.txt ] || fail "sweep --out changed a foreign folder"
+expect 0 "" -- "$SKEIN" sweep sw/designs/sweeps/kestrel-small.yaml --out sfor --overwrite
+[ -f sfor/.skein-output ] && head -1 sfor/results.csv | grep -q '^layout,' ||
+  fail "sweep --out --overwrite did not write its results and marker"
+expect 0 "" -- "$SKEIN" sweep sw/designs/sweeps/kestrel-small.yaml --out sfor --resume  # its own folder now
 
 # --- 3. interrupted reports: SIGKILL at every step, then SIGTERM ---------------------------------------------
 "$SKEIN" report design.yaml --out rep --creation-date 2027-01-01T00:00:00Z >/dev/null 2>&1 || fail "first report"
