@@ -112,6 +112,11 @@ TEST_CASE("folder_write: no output may equal or contain an input, compared as ca
   // A sibling whose name starts the same is not the folder ("proj2" does not contain "proj/design.yaml").
   CHECK(error_of([&] { write_folder_atomic((d / "proj2").string(), {{"a.txt", "x"}}, o); }).empty());
 
+  // A hard link to the design is the design under another name.
+  fs::create_hard_link(d / "proj" / "design.yaml", d / "alias.csv");
+  CHECK(error_of([&] { check_output_not_input((d / "alias.csv").string(), o.inputs, "--points"); })
+            .find("the same file under another name") != std::string::npos);
+
   OutputFileCheck c{"--points", "name,lat_deg,", true, {(d / "proj" / "design.yaml").string()}};
   CHECK(error_of([&] { check_output_file((d / "proj" / "design.yaml").string(), c); }).find("is the input file") !=
         std::string::npos);

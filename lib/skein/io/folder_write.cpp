@@ -114,6 +114,12 @@ void check_output_not_input(const std::string& path, const std::vector<std::stri
     const fs::path in = fs::canonical(input, ec2);
     if (ec2) continue;
     const auto [o, i] = std::mismatch(out.begin(), out.end(), in.begin(), in.end());
+    std::error_code ec3;
+    const bool same_file = fs::equivalent(out, in, ec3) && !ec3;  // also a hard link to the input
+    if (same_file)
+      throw InputError(fmt::format("{} {}: is the input file {} (the same file under another name); expected an "
+                                   "output path outside the inputs",
+                                   what, path, input));
     if (o == out.end())
       throw InputError(fmt::format("{} {}: {} the input file {}; expected an output path outside the inputs", what, path,
                                    i == in.end() ? "is" : "contains", input));
@@ -217,6 +223,8 @@ void FolderWriter::stop_if_interrupted() {
 
 void FolderWriter::add(const std::string& relative_path, std::string_view content) {
   assert(!committed_);
+  assert(!relative_path.empty() && fs::path(relative_path).is_relative() &&
+         relative_path.find("..") == std::string::npos && "a file of the folder stays inside it");
   stop_if_interrupted();
   try {
     const fs::path p = fs::path(staging_) / relative_path;
