@@ -114,6 +114,16 @@ for sig in TERM INT; do
   [ "$(manifest rep)" = "$old" ] || fail "SIG$sig while writing: the previous report is not whole"
   [ -z "$(find . -maxdepth 1 -name '.rep.skein-staging-*')" ] || fail "SIG$sig left a staging folder"
 done
+# The two-rename path (platforms without the exchange): a normal run replaces the report whole, and a kill
+# before the renames leaves the previous one.
+SKEIN_FAULT_NO_EXCHANGE=1 "$SKEIN" report design.yaml --out rep --creation-date 2027-05-05T00:00:00Z >/dev/null 2>&1 ||
+  fail "report by two renames"
+[ "$(manifest rep)" = "$new" ] || fail "the two-rename path did not put the new report in place"
+[ -z "$(find . -maxdepth 1 -name '.rep.skein-staging-*')" ] || fail "the two-rename path left a folder behind"
+SKEIN_FAULT_NO_EXCHANGE=1 SKEIN_FAULT_AT=files-written "$SKEIN" report design.yaml --out rep \
+  --creation-date 2027-01-01T00:00:00Z >/dev/null 2>&1
+[ "$(manifest rep)" = "$new" ] || fail "two-rename path killed before the renames: the previous report is not whole"
+"$SKEIN" report design.yaml --out rep --creation-date 2027-01-01T00:00:00Z >/dev/null 2>&1 || fail "report after that"
 # Stale-looking folders that are not skein's are never removed: no marker, or not the staging name.
 mkdir -p .rep.skein-staging-999999-abcdef .rep.backup && echo x > .rep.skein-staging-999999-abcdef/user.txt
 echo y > .rep.backup/user.txt

@@ -77,6 +77,7 @@ bool pid_alive(long pid) { return pid > 0 && (::kill(static_cast<pid_t>(pid), 0)
 // Swap `from` into `to` (which exists). True on success; false when the platform or file system has no
 // atomic exchange (then the caller falls back to two renames).
 bool exchange(const fs::path& from, const fs::path& to) {
+  if (std::getenv("SKEIN_FAULT_NO_EXCHANGE") != nullptr) return false;  // tests of the fallback path
 #if defined(__linux__) && defined(RENAME_EXCHANGE)
   if (::renameat2(AT_FDCWD, from.c_str(), AT_FDCWD, to.c_str(), RENAME_EXCHANGE) == 0) return true;
   if (errno == EINVAL || errno == ENOSYS || errno == ENOTSUP) return false;

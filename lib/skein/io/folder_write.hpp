@@ -13,6 +13,7 @@
 //   folder is removed and the signal is raised again with its default action.
 // - Fault injection for tests: SKEIN_FAULT_AT=<step> makes the writer kill itself (SIGKILL) at that step;
 //   the steps are listed in folder_write_fault_steps. SKEIN_FAULT_SIGNAL=TERM or INT sends that signal instead.
+//   SKEIN_FAULT_NO_EXCHANGE=1 takes the two-rename path, as on a platform without the exchange.
 #include <string>
 #include <string_view>
 #include <vector>
