@@ -15,6 +15,7 @@
 #include "skein/design/design_file.hpp"
 #include "skein/error.hpp"
 #include "skein/io/atomic_write.hpp"
+#include "skein/io/output_file.hpp"
 #include "skein/report/coverage_tables.hpp"
 
 namespace skein::cli {
@@ -61,7 +62,7 @@ void add_coverage_command(CLI::App& app) {
     std::string format = "table";
     std::optional<double> spacing, span_h, step, elevation;
     std::optional<int> fold;
-    bool exhaustive = false, force = false;
+    bool exhaustive = false, force = false, overwrite = false;
     int threads = 0;
     std::string points_file;
   };
@@ -80,9 +81,14 @@ void add_coverage_command(CLI::App& app) {
   cmd->add_flag("--exhaustive", opt->exhaustive, "Test every (satellite, point) pair instead of culling footprints");
   add_threads_option(*cmd, opt->threads, "Worker threads (default: all cores); results do not depend on it");
   cmd->add_flag("--force", opt->force, "Run even when the memory or work estimate exceeds the limits");
-  cmd->add_option("--points", opt->points_file, "Also write the per-point table (with cell bounds) to this CSV file");
+  cmd->add_option("--points", opt->points_file,
+                  "Also write the per-point table (with cell bounds) to this CSV file; an existing file is replaced "
+                  "only when it is empty or a points file skein wrote before");
+  cmd->add_flag("--overwrite", opt->overwrite, "Replace the --points file even when skein did not write it");
   cmd->callback([opt] {
     const Design design = read_design_file(opt->design);
+    OutputFileCheck points_check{"--points", std::string(point_table_csv_signature), opt->overwrite, {opt->design}};
+    if (!opt->points_file.empty()) check_output_file(opt->points_file, points_check);  // before any work
     CoverageOptions options;
     options.spacing_deg = opt->spacing;
     if (opt->span_h) options.span_s = *opt->span_h * 3600.0;
@@ -104,6 +110,7 @@ void add_coverage_command(CLI::App& app) {
     }
     const Table overview = coverage_overview_table(result), folds = coverage_fold_table(result),
                 bands = coverage_band_table(result);
+    if (!opt->points_file.empty()) check_output_file(opt->points_file, points_check);  // again: it may have appeared
     if (!opt->points_file.empty()) write_file_atomic(opt->points_file, render_csv(coverage_point_table(result)));
     const OutputFormat f = format_of(opt->format);
     if (f == OutputFormat::json) {

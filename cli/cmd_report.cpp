@@ -42,7 +42,7 @@ void add_report_command(CLI::App& app) {
   struct Options {
     std::string design, out, solar, created;
     int threads = 0;
-    bool force = false;
+    bool force = false, overwrite = false;
     double ephemeris_step_s = 60.0;
   };
   auto opt = std::make_shared<Options>();
@@ -50,7 +50,11 @@ void add_report_command(CLI::App& app) {
       "report", "Write the whole report folder for a design: summary.md, index.html, tables (CSV, JSON), plots (SVG), "
                 "coverage cells (GeoJSON) and ephemerides (CCSDS OEM)");
   cmd->add_option("design", opt->design, "Design file (YAML)")->required();
-  cmd->add_option("--out", opt->out, "Report folder (default: reports/DESIGN-NAME/); replaced as a whole");
+  cmd->add_option("--out", opt->out,
+                  "Report folder (default: reports/DESIGN-NAME/); replaced as a whole when it is a previous skein "
+                  "output (it holds a .skein-output file) or empty");
+  cmd->add_flag("--overwrite", opt->overwrite,
+                "Replace the --out folder even when skein did not write it (everything in it is deleted)");
   add_solar_option(*cmd, opt->solar, "Solar activity for the budget: low, mean, high or cycle (default: the design's)");
   cmd->add_option("--creation-date", opt->created,
                   "CREATION_DATE written in the OEM files (default: SOURCE_DATE_EPOCH if set, else now); the only "
@@ -58,7 +62,9 @@ void add_report_command(CLI::App& app) {
   cmd->add_option("--ephemeris-step", opt->ephemeris_step_s, "OEM sample step in seconds (default 60)")
       ->check(CLI::Range(1.0, 86400.0));
   add_threads_option(*cmd, opt->threads, "Worker threads (default: all cores); results do not depend on it");
-  cmd->add_flag("--force", opt->force, "Run the coverage even when its work estimate exceeds the limits");
+  cmd->add_flag("--force", opt->force,
+                "Run the coverage even when its work estimate exceeds the limits, and write a report above the size "
+                "limits (50000 files, 2 GiB)");
   cmd->callback([opt] {
     const Design design = read_design_file(opt->design);
     const auto threads = limit_threads(opt->threads);
@@ -69,12 +75,21 @@ void add_report_command(CLI::App& app) {
     options.ephemeris_step_s = opt->ephemeris_step_s;
     std::string out = opt->out.empty() ? "reports/" + std::filesystem::path(opt->design).stem().string() : opt->out;
     while (out.size() > 1 && out.back() == '/') out.pop_back();
-    const Report report = build_report(design, options);
-    write_folder_atomic(out, report.files);
+    FolderWriteOptions folder;
+    folder.overwrite = opt->overwrite;
+    folder.inputs = {opt->design};
+    check_output_folder(out, folder);  // before any work: nothing is computed for an output that would be refused
+    std::optional<FolderWriter> writer;  // made at the first file, after the coverage ran
+    const Report report = build_report(design, options, [&](const std::string& path, std::string_view content) {
+      if (!writer) writer.emplace(out, folder);
+      writer->add(path, content);
+    });
+    if (!writer) writer.emplace(out, folder);
+    writer->commit();
     print_stdout(fmt::format("Report for \"{}\" written to {} ({} files).\n"
                              "  summary:  {}/summary.md\n  browser:  {}/index.html\n"
                              "  tables:   {}/tables/   plots: {}/plots/   exports: {}/exports/\n",
-                             design.name, out, report.files.size(), out, out, out, out, out));
+                             design.name, out, report.files_written, out, out, out, out, out));
     for (const auto& w : report.budget.warnings) print_stderr("skein: warning: " + w + "\n");
     print_stderr(std::string("Caution: ") + std::string(report_caution) + "\n");
   });

@@ -21,6 +21,7 @@
 #include "commands.hpp"
 #include "skein/error.hpp"
 #include "skein/io/atomic_write.hpp"
+#include "skein/io/folder_write.hpp"
 #include "skein/sweep/journal.hpp"
 #include "skein/sweep/results_rows.hpp"
 #include "skein/sweep/sweep_outputs.hpp"
@@ -98,18 +99,46 @@ struct Options {
   std::string sweep;
   std::string out;
   std::string format = "table";
-  bool resume = false, restart = false, force = false, exhaustive = false;
+  bool resume = false, restart = false, force = false, exhaustive = false, overwrite = false;
   int threads = 0;
 };
+
+std::string out_dir(const Options& opt) {
+  return !opt.out.empty() ? opt.out : std::filesystem::path(opt.sweep).stem().string() + "-results";
+}
+
+// The sweep folder is written into (results replaced, the journal kept): it must not be or hold an input
+// file, and an existing non-empty folder must be a skein output (its marker, or a journal a sweep wrote
+// before the marker existed) unless --overwrite is given.
+void check_sweep_folder(const Options& opt, const std::string& dir, const Sweep& sweep) {
+  namespace fs = std::filesystem;
+  check_output_not_input(dir, {opt.sweep, sweep.base_file}, "--out");
+  std::error_code ec;
+  if (!fs::exists(dir, ec)) return;
+  if (!fs::is_directory(dir, ec))
+    throw InputError(fmt::format("--out {}: exists and is not a folder; expected a folder path", dir));
+  if (opt.overwrite || is_skein_output_folder(dir) || (fs::is_empty(dir, ec) && !ec)) return;
+  const std::string journal = (fs::path(dir) / "journal.txt").string();
+  if (fs::is_regular_file(journal, ec) && read_text(journal).rfind("skein-sweep-journal ", 0) == 0) return;
+  throw InputError(fmt::format("--out {}: the folder exists and was not written by skein (it has no {} file); nothing "
+                               "was changed. Expected a new or empty folder, a previous sweep output, or --overwrite "
+                               "to write the results into it",
+                               dir, output_marker_name));
+}
 
 // Rank 0 (or the only process): the journal's finished rows, after checking and compacting it.
 std::map<size_t, std::string> open_journal(const Options& opt, const std::string& dir, const Sweep& sweep,
                                            const LayoutSet& set, long* damaged) {
+  // Before any layout is evaluated or anything written; rank 0 only (the others would race its marker), and
+  // a refusal reaches the other ranks through the status broadcast.
+  check_sweep_folder(opt, dir, sweep);
   std::error_code ec;
   std::filesystem::create_directories(dir, ec);
   if (ec || !std::filesystem::is_directory(dir))
     throw InputError(fmt::format("{}: cannot create the output folder ({}); expected a writable path for --out", dir,
                                  ec ? ec.message() : "not a folder"));
+  const std::string marker = (std::filesystem::path(dir) / output_marker_name).string();
+  if (!is_skein_output_folder(dir)) write_file_atomic(marker, output_marker_text());
   const std::string path = (std::filesystem::path(dir) / "journal.txt").string();
   const std::string header = journal_header(sweep.fingerprint, set.layouts.size());
   std::map<size_t, std::string> rows;
@@ -206,7 +235,7 @@ void run(const Options& opt) {
     if (rank != 0) throw CLI::RuntimeError(2);  // rank 0 reports it
     throw;
   }
-  const std::string dir = !opt.out.empty() ? opt.out : std::filesystem::path(opt.sweep).stem().string() + "-results";
+  const std::string dir = out_dir(opt);
 
   std::map<size_t, std::string> rows;
   long damaged = 0;
@@ -314,6 +343,8 @@ void add_sweep_command(CLI::App& app) {
   add_format_option(*cmd, opt->format);
   cmd->add_flag("--resume", opt->resume, "Continue an interrupted sweep from its journal (finished rows are kept)");
   cmd->add_flag("--restart", opt->restart, "Discard an earlier run's journal and start over");
+  cmd->add_flag("--overwrite", opt->overwrite,
+                "Write into an existing --out folder even when skein did not write it (its result files are replaced)");
   cmd->add_flag("--force", opt->force,
                 "Run above the layout limit (20000) and the coverage work and memory limits of each layout");
   cmd->add_flag("--exhaustive", opt->exhaustive, "Test every (satellite, point) pair instead of culling footprints");

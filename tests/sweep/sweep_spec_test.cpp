@@ -125,3 +125,12 @@ TEST_CASE("sweep: an unknown shell, a fold no layout can reach and a design file
         "s.yaml:3:1: (top level): this is a design file (it has shells, no base or axes), not a sweep; run skein "
         "check, coverage, budget or report on it, or give skein sweep a sweep file (name, base, axes, requirement)");
 }
+
+TEST_CASE("sweep: the design's 100000-satellite cap holds for every layout, refused at the T axis") {
+  // demo.yaml: imaging (varied, 12) and relay (8 satellites). T = 99992 makes exactly 100000: accepted;
+  // T = 99993 makes 100001: refused at axes.satellites (line 10 of the text, column 15: the list).
+  CHECK(error_of(sweep_text("  satellites: [12, 99992]\n  planes: [4]\n")).empty());
+  const std::string e = error_of(sweep_text("  satellites: [12, 99993]\n  planes: [4]\n"));
+  CHECK_MESSAGE(e.find("s.yaml:10:15: axes.satellites:") != std::string::npos, e);
+  CHECK(e.find("T = 99993 with the 8 satellites of the other shells makes 100001 satellites") != std::string::npos);
+}

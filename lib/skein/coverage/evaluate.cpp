@@ -1326,27 +1326,48 @@ CoverageWorkEstimate estimate(const Design& design, const CoverageSettings& st, 
 
 }  // namespace
 
+namespace {
+
+bool over_limits(const CoverageWorkEstimate& est, const CoverageOptions& options) {
+  return est.memory_bytes > options.memory_limit_bytes || est.pair_tests > options.pair_test_limit;
+}
+
+void check_limits(const CoverageWorkEstimate& est, const CoverageOptions& options) {
+  if (options.force) return;
+  if (est.memory_bytes > options.memory_limit_bytes)
+    throw InputError(fmt::format("this run would need about {:.1f} GiB of memory ({} points, {} instants, {} satellites), "
+                                 "above the {:.1f} GiB limit; use a coarser grid, a shorter span or a longer step, "
+                                 "or --force", est.memory_bytes / (1024.0 * 1024 * 1024), est.points, est.steps,
+                                 est.satellites, options.memory_limit_bytes / (1024.0 * 1024 * 1024)));
+  if (est.pair_tests > options.pair_test_limit)
+    throw InputError(fmt::format("this run would make about {:.2g} visibility tests (roughly {:.0f} min on 2 cores), above "
+                                 "the limit of {:.2g}; use a coarser grid, a shorter span, a longer step or culled mode, "
+                                 "or --force", est.pair_tests, est.seconds_2_cores / 60.0, options.pair_test_limit));
+}
+
+// The estimate from the grid's point count computed from spacing and extent, before any grid is built
+// (exact except for regions, where it is an upper bound).
+CoverageWorkEstimate estimate_before_grid(const Design& design, const CoverageSettings& st, CoverageMode mode) {
+  const double bound = std::min(grid_point_count_bound(st.spec), 1e15);
+  return estimate(design, st, static_cast<long>(bound), mode);
+}
+
+}  // namespace
+
 CoverageWorkEstimate estimate_coverage_work(const Design& design, const CoverageOptions& options) {
   const CoverageSettings st = resolve_coverage_settings(design, options);
+  const CoverageWorkEstimate before = estimate_before_grid(design, st, options.mode);
+  if (st.spec.grid != GridKind::region || over_limits(before, options)) return before;
   const Grid grid = build_grid(st.spec, design.earth);
   return estimate(design, st, static_cast<long>(grid.points.size()), options.mode);
 }
 
 CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& options) {
   const CoverageSettings st = resolve_coverage_settings(design, options);
+  check_limits(estimate_before_grid(design, st, options.mode), options);  // the guard runs before the grid is built
   const Grid grid = build_grid(st.spec, design.earth);
   const CoverageWorkEstimate est = estimate(design, st, static_cast<long>(grid.points.size()), options.mode);
-  if (!options.force) {
-    if (est.memory_bytes > options.memory_limit_bytes)
-      throw InputError(fmt::format("this run would need about {:.1f} GiB of memory ({} points, {} instants, {} satellites), "
-                                   "above the {:.1f} GiB limit; use a coarser grid, a shorter span or a longer step, "
-                                   "or --force", est.memory_bytes / (1024.0 * 1024 * 1024), est.points, est.steps,
-                                   est.satellites, options.memory_limit_bytes / (1024.0 * 1024 * 1024)));
-    if (est.pair_tests > options.pair_test_limit)
-      throw InputError(fmt::format("this run would make about {:.2g} visibility tests (roughly {:.0f} min on 2 cores), above "
-                                   "the limit of {:.2g}; use a coarser grid, a shorter span, a longer step or culled mode, "
-                                   "or --force", est.pair_tests, est.seconds_2_cores / 60.0, options.pair_test_limit));
-  }
+  check_limits(est, options);
 
   const std::vector<Satellite> sats = expand_constellation(design);
   const int T = static_cast<int>(sats.size());

@@ -1,5 +1,6 @@
 #include "skein/coverage/grid.hpp"
 
+#include <algorithm>
 #include <cmath>
 
 #include <fmt/format.h>
@@ -51,6 +52,27 @@ void add_rows(Grid& g, const EarthModel& earth, double lat0_deg, double lat1_deg
 double zone_area_fraction(double flattening, double lat1_rad, double lat2_rad) {
   const double e = std::sqrt(flattening * (2.0 - flattening));
   return (authalic_q(e, std::sin(lat2_rad)) - authalic_q(e, std::sin(lat1_rad))) / (2.0 * authalic_q(e, 1.0));
+}
+
+double grid_point_count_bound(const CoverageSpec& spec) {
+  if (spec.grid == GridKind::sites) return static_cast<double>(spec.sites.size());
+  const double cols = std::round(360.0 / spec.spacing_deg);
+  double lat0 = -90.0, lat1 = 90.0;
+  if (spec.grid == GridKind::band) {
+    lat0 = spec.band_lat_min_deg;
+    lat1 = spec.band_lat_max_deg;
+  }
+  const double rows = std::round((lat1 - lat0) / spec.spacing_deg);  // as add_rows counts them
+  if (spec.grid != GridKind::region || spec.region.empty()) return rows * cols;
+  double lo = 90.0, hi = -90.0;
+  for (const GeoVertex& v : spec.region) {
+    lo = std::min(lo, v.lat_deg);
+    hi = std::max(hi, v.lat_deg);
+  }
+  // Rows whose centre latitude -90 + (i + 1/2) spacing lies in [lo, hi], plus one either side for rounding.
+  const double first = std::max(0.0, std::floor((lo + 90.0) / spec.spacing_deg - 0.5) - 1.0);
+  const double last = std::min(rows - 1.0, std::ceil((hi + 90.0) / spec.spacing_deg - 0.5) + 1.0);
+  return std::max(0.0, last - first + 1.0) * cols;
 }
 
 Grid build_grid(const CoverageSpec& spec, const EarthModel& earth) {

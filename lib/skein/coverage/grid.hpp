@@ -41,6 +41,11 @@ struct Grid {
 // Reduces to (sin phi2 - sin phi1)/2 for a sphere (e = 0).
 double zone_area_fraction(double flattening, double lat1_rad, double lat2_rad);
 
+// The number of points build_grid would make, computed from the spacing and extent without building
+// anything: exact for global, band and site grids; for a region, the cells of the latitude rows its
+// vertices span (an upper bound). Lets the coverage guard refuse a huge grid before it is built.
+double grid_point_count_bound(const CoverageSpec& spec);
+
 // Build the grid of a coverage spec. Cells are spacing x spacing deg, rows centred at -90 + (i + 1/2) spacing
 // (band: from lat_min_deg), columns at -180 + (j + 1/2) spacing. Throws InputError when a region holds no
 // cell centre at that spacing.

@@ -18,7 +18,7 @@ constexpr double max_semi_major_axis_km = 500000.0;  // beyond the Moon's distan
 // Resource guards (common practice: the largest filed constellations hold a few tens of thousands of
 // satellites in a few dozen shells). They bound what every evaluator expands, and the shell pairs of the
 // differential drift table (shells^2 / 2).
-constexpr long max_satellites = 100000;  // in one shell and in the whole design
+constexpr long max_satellites = max_design_satellites;  // in one shell and in the whole design
 constexpr size_t max_shells = 1000;
 
 Spacecraft read_spacecraft(const MapReader& root) {

@@ -184,7 +184,6 @@ size_t edit_distance(std::string_view a, std::string_view b) {
   throw InputError(fmt::format("{}: not valid YAML: {}", location(file, ex.mark), ex.msg));
 }
 
-constexpr size_t max_file_bytes = 4u << 20;  // a design is a few kB; 4 MiB is a generous ceiling
 
 }  // namespace
 
@@ -261,18 +260,21 @@ YAML::Node load_text(const std::string& text, const std::string& file) {
   return root;
 }
 
-YAML::Node load_file(const std::string& path) {
+std::string read_text_file(const std::string& path) {
   std::error_code ec;
   if (std::filesystem::is_directory(path, ec))
     throw InputError(fmt::format("{}: is a directory; expected a YAML design file", path));
   std::ifstream in(path, std::ios::binary);
   if (!in) throw InputError(fmt::format("{}: cannot be opened for reading; check the path", path));
-  std::ostringstream ss;
-  ss << in.rdbuf();
-  std::string text = ss.str();
+  // Read at most the limit plus one byte, so that /dev/zero or a huge file is refused at once.
+  std::string text(max_file_bytes + 1, '\0');
+  in.read(text.data(), static_cast<std::streamsize>(text.size()));
+  text.resize(static_cast<size_t>(in.gcount()));
+  if (in.bad()) throw InputError(fmt::format("{}: could not be read; check the path", path));
   if (text.size() > max_file_bytes)
-    throw InputError(fmt::format("{}: is {} bytes; a design file is expected to be under {} bytes", path, text.size(), max_file_bytes));
-  return load_text(text, path);
+    throw InputError(fmt::format("{}: is larger than {} bytes; a design file is expected to be under {} bytes", path,
+                                 max_file_bytes, max_file_bytes));
+  return text;
 }
 
 YAML::Node key_node(const YAML::Node& map, std::string_view key) {
@@ -281,6 +283,8 @@ YAML::Node key_node(const YAML::Node& map, std::string_view key) {
       if (it->first.IsScalar() && it->first.Scalar() == key) return it->first;
   return YAML::Node(YAML::NodeType::Undefined);
 }
+
+YAML::Node load_file(const std::string& path) { return load_text(read_text_file(path), path); }
 
 void fail_at(const std::string& file, const YAML::Node& at, const std::string& path, const std::string& message) {
   const YAML::Mark mark = at.IsDefined() ? at.Mark() : YAML::Mark::null_mark();

@@ -36,6 +36,12 @@ std::string quote_for_message(std::string_view text);
 constexpr size_t max_expanded_nodes = 1'000'000;  // nodes counted with every alias expanded
 constexpr int max_nesting_depth = 64;             // maps and lists inside each other
 
+// The text of a file, read with the size guard first: at most max_file_bytes + 1 bytes are read, and a
+// larger file (or an endless one such as /dev/zero) is refused at once. Throws InputError for a directory,
+// an unreadable path or a file over the limit.
+constexpr size_t max_file_bytes = 4u << 20;  // a design is a few kB; 4 MiB is a generous ceiling
+std::string read_text_file(const std::string& path);
+
 // Load a YAML file; throws InputError for an unreadable path, a directory, an empty document, a parse error
 // (with its line and column), nesting too deep, more than one document, an alias inside the node it refers
 // to, or aliases expanding beyond max_expanded_nodes.

@@ -1,4 +1,5 @@
 #pragma once
+#include <string_view>
 // Tables of coverage results, shared by `skein coverage` and the report folder.
 #include "skein/coverage/result.hpp"
 #include "skein/report/table.hpp"
@@ -12,6 +13,9 @@ Table coverage_fold_table(const CoverageResult& r);
 // One row per latitude band holding points.
 Table coverage_band_table(const CoverageResult& r);
 // One row per grid point, with its cell bounds (for maps and GeoJSON cells).
+// The first columns of the per-point CSV (`coverage --points FILE`): how skein recognises a points file it
+// wrote before and may replace.
+inline constexpr std::string_view point_table_csv_signature = "name,lat_deg,lon_deg,height_km,area_weight,cell_lat_min_deg,";
 Table coverage_point_table(const CoverageResult& r);
 // The time- and area-weighted distribution of the number of satellites in view.
 Table in_view_distribution_table(const CoverageResult& r);

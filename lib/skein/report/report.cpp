@@ -1,8 +1,12 @@
 #include "skein/report/report.hpp"
 
+#include <cmath>
+
 #include <fmt/format.h>
 
+#include "skein/coverage/grid.hpp"
 #include "skein/design/constellation.hpp"
+#include "skein/error.hpp"
 #include "skein/export/geojson.hpp"
 #include "skein/export/oem.hpp"
 #include "skein/drift/drift_summary.hpp"
@@ -83,8 +87,58 @@ std::string summary_markdown(const Design& d, const std::vector<NamedTable>& tab
 
 }  // namespace
 
+// Bytes per item in the estimate, measured on the reports of designs/small.yaml and designs/demo.yaml
+// (2 deg grid, 3 and 20 satellites; tests/report/report_size_test.cpp checks the estimate against the bytes
+// written, within -20 %/+25 %): an OEM data line (epoch and six numbers, 99 bytes measured), an OEM file's
+// header, a satellite's rows in the satellite table (CSV and JSON, 370 to 420 measured), and a grid point's
+// rows in the point table, the GeoJSON cells and the two maps, each drawn in its SVG and again in index.html
+// (1680 to 1720 measured at fold 1 to 3).
+constexpr double oem_line_bytes = 100.0;
+constexpr double oem_header_bytes = 1000.0;
+constexpr double satellite_table_bytes = 500.0;
+constexpr double point_bytes = 1800.0;
+constexpr double fixed_bytes = 300000.0;  // summary, page, small tables and plots
+
+ReportSizeEstimate estimate_report_size(const Design& design, const ReportOptions& options) {
+  const CoverageSettings st = resolve_coverage_settings(design, options.coverage);
+  const double sats = static_cast<double>(st.satellites);
+  const double points = grid_point_count_bound(st.spec);
+  const double samples = std::floor(options.ephemeris_span_s / options.ephemeris_step_s) + 1.0;
+  const double levels = 4.0;  // solar levels of the decay tables, at most
+  const double shells = static_cast<double>(design.shells.size());
+  ReportSizeEstimate e;
+  // summary, page; 13 tables and the decay tables in CSV and JSON; up to 7 plots and one per shell; GeoJSON; OEM.
+  e.files = 2.0 + 2.0 * (13.0 + shells * levels) + 7.0 + shells + 1.0 + sats;
+  e.bytes = fixed_bytes + sats * (oem_header_bytes + samples * oem_line_bytes + satellite_table_bytes) +
+            points * point_bytes;
+  return e;
+}
+
 Report build_report(const Design& design, const ReportOptions& options) {
   Report rep;
+  std::vector<OutputFile> files;
+  rep = build_report(design, options, [&](const std::string& path, std::string_view content) {
+    files.push_back({path, std::string(content)});
+  });
+  rep.files = std::move(files);
+  return rep;
+}
+
+Report build_report(const Design& design, const ReportOptions& options, const ReportSink& sink_file) {
+  if (!options.coverage.force) {
+    const ReportSizeEstimate size = estimate_report_size(design, options);
+    if (size.files > max_report_files || size.bytes > max_report_bytes)
+      throw InputError(fmt::format(
+          "the report would hold about {:.0f} files and {:.1f} GiB, above the limits of {:.0f} files and {:.1f} GiB; "
+          "expected a smaller design, a coarser coverage grid or a longer --ephemeris-step, or --force",
+          size.files, size.bytes / (1024.0 * 1024 * 1024), max_report_files, max_report_bytes / (1024.0 * 1024 * 1024)));
+  }
+  Report rep;
+  auto sink = [&](const std::string& path, std::string_view content) {
+    sink_file(path, content);
+    ++rep.files_written;
+    rep.bytes_written += static_cast<double>(content.size());
+  };
   rep.coverage = evaluate_coverage(design, options.coverage);
   rep.budget = compute_budget(design, options.budget);
   const auto sats = expand_constellation(design);
@@ -129,16 +183,16 @@ Report build_report(const Design& design, const ReportOptions& options) {
 
   std::vector<std::string> warnings = rep.budget.warnings;
 
-  rep.files.push_back({"summary.md", summary_markdown(design, tables, warnings)});
-  rep.files.push_back({"index.html", html_page(design, tables, figures, warnings)});
+  sink("summary.md", summary_markdown(design, tables, warnings));
+  sink("index.html", html_page(design, tables, figures, warnings));
   for (const auto& t : tables) {
-    rep.files.push_back({"tables/" + t.file + ".csv", render_csv(t.table)});
+    sink("tables/" + t.file + ".csv", render_csv(t.table));
     nlohmann::ordered_json j;
     j["title"] = t.table.title;
     j["rows"] = rows_to_json(t.table);
-    rep.files.push_back({"tables/" + t.file + ".json", j.dump(2) + "\n"});
+    sink("tables/" + t.file + ".json", j.dump(2) + "\n");
   }
-  for (const auto& f : figures) rep.files.push_back({"plots/" + f.file + ".svg", f.svg});
+  for (const auto& f : figures) sink("plots/" + f.file + ".svg", f.svg);
 
   if (has_cells) {
     std::vector<GeoCell> cells;
@@ -158,7 +212,7 @@ Report build_report(const Design& design, const ReportOptions& options) {
       cells.push_back({p.point.cell->lon_min_deg, p.point.cell->lon_max_deg, p.point.cell->lat_min_deg,
                        p.point.cell->lat_max_deg, std::move(props)});
     }
-    rep.files.push_back({"exports/coverage_cells.geojson", render_geojson(cells)});
+    sink("exports/coverage_cells.geojson", render_geojson(cells));
   }
   for (const auto& sat : sats) {
     OemMessage m;
@@ -167,7 +221,7 @@ Report build_report(const Design& design, const ReportOptions& options) {
     m.comments = {"Design: " + design.name, std::string(report_caution)};
     m.segments.push_back(sample_oem_segment(design.earth, make_secular_orbit(design.earth, sat.elements), design.epoch,
                                             options.ephemeris_span_s, options.ephemeris_step_s, sat.id, sat.id));
-    rep.files.push_back({"exports/oem/" + sat.id + ".oem", render_oem(m)});
+    sink("exports/oem/" + sat.id + ".oem", render_oem(m));  // one at a time: never all in memory
   }
   return rep;
 }

@@ -1,8 +1,10 @@
 #pragma once
 // The report folder: one design in, every table, figure and export out (the content of `skein report`).
-// Pure: returns the files as text; cli/cmd_report.cpp writes them with write_folder_atomic.
+// Pure: hands the files as text to a sink; cli/cmd_report.cpp writes them with a FolderWriter.
+#include <functional>
 #include <optional>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "skein/budget/budget.hpp"
@@ -27,12 +29,33 @@ struct ReportOptions {
 };
 
 struct Report {
-  std::vector<OutputFile> files;         // in a fixed order; paths relative to the report folder
+  std::vector<OutputFile> files;         // the two-argument build_report only; paths relative to the folder
+  long files_written = 0;                // files handed to the sink
+  double bytes_written = 0.0;
   CoverageResult coverage;
   BudgetResult budget;
 };
 
-// Build every file of the report. Deterministic: the same design and options give the same bytes.
+// The size of a report, estimated from the design before anything is computed: files, and bytes (dominated
+// by the OEM ephemerides, one per satellite, and by the per-point tables, maps and GeoJSON cells).
+struct ReportSizeEstimate {
+  double files = 0.0;
+  double bytes = 0.0;
+};
+// Stated limits on a report (common practice: a report meant to be opened and read; --force lifts them).
+constexpr double max_report_files = 50000;
+constexpr double max_report_bytes = 2.0 * 1024 * 1024 * 1024;  // 2 GiB
+ReportSizeEstimate estimate_report_size(const Design& design, const ReportOptions& options);
+
+// Receives each file of the report as it is made (the CLI writes it straight into the staging folder).
+using ReportSink = std::function<void(const std::string& relative_path, std::string_view content)>;
+
+// Build every file of the report and hand each to `sink` as soon as it is made, so the ephemerides are
+// never all in memory. Deterministic: the same design and options give the same bytes in the same order.
+// Throws InputError before any work when the size estimate exceeds max_report_files or max_report_bytes
+// (unless options.coverage.force), and for whatever the coverage and budget refuse.
+Report build_report(const Design& design, const ReportOptions& options, const ReportSink& sink);
+// The same, collecting the files in Report::files (for tests and small designs).
 Report build_report(const Design& design, const ReportOptions& options);
 
 }  // namespace skein

@@ -20,13 +20,7 @@ using yaml::MapReader;
 
 constexpr double max_altitude_km = 400000.0;  // the design reader's bound on a, less an Earth radius
 
-std::string read_whole_file(const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  if (!in) throw InputError(fmt::format("{}: cannot read the file; expected a readable file", path));
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
+std::string read_whole_file(const std::string& path) { return yaml::read_text_file(path); }
 
 // The raw values of an axis: a single scalar, a list, or a range {from, to, step} (both ends included).
 std::vector<double> read_number_axis(const MapReader& axes, std::string_view key, double min, double max,
@@ -164,6 +158,17 @@ SweepAxes read_axes(const MapReader& root, const Sweep& sw) {
   ax.satellites = m.has("satellites")
                       ? to_ints(read_number_axis(m, "satellites", 1, 100000, "a satellite count T from 1 to 100000", true))
                       : std::vector<int>{shell.satellites};
+  if (m.has("satellites")) {
+    // The design's satellite cap holds for every layout: the varied shell's T plus the other shells.
+    long others = 0;
+    for (size_t s = 0; s < sw.base.shells.size(); ++s)
+      if (s != sw.shell_index) others += sw.base.shells[s].satellites;
+    for (int t : ax.satellites)
+      if (t + others > max_design_satellites)
+        m.fail_key("satellites", fmt::format("T = {} with the {} satellites of the other shells makes {} satellites; "
+                                             "expected at most {} in the whole design for every layout",
+                                             t, others, t + others, max_design_satellites));
+  }
   ax.planes = m.has("planes") ? to_ints(read_number_axis(m, "planes", 1, 100000, "a plane count P from 1 to 100000", true))
                               : std::vector<int>{shell.planes};
   if (m.has("phasing")) {
@@ -382,9 +387,9 @@ std::optional<CostFigure> cost_figure_from_string(std::string_view text) {
 }
 
 Sweep read_sweep_file(const std::string& path) {
-  const std::string text = read_whole_file(path);
+  const std::string text = read_whole_file(path);  // the size guard runs before anything else
   const std::string folder = std::filesystem::path(path).parent_path().string();
-  return read_sweep(yaml::load_file(path), path, folder.empty() ? "." : folder, text);
+  return read_sweep(yaml::load_text(text, path), path, folder.empty() ? "." : folder, text);
 }
 
 Sweep read_sweep_text(const std::string& text, const std::string& name, const std::string& folder) {
