@@ -1,0 +1,70 @@
+#include "skein/coverage/engine/path_events.hpp"
+
+#include <algorithm>
+#include <cmath>
+
+#include "skein/coverage/engine/margin.hpp"
+
+namespace skein::coverage_engine {
+
+// A pass of (p, s) wholly inside (t_{j-1}, t_j] for a pair out of view at both instants (hidden_pass.hpp).
+// sin_limit is the sine of an outer footprint angle of s valid for p over the step, widened by the track's
+// deviation bound: the satellite's ground direction stays within that deviation of the great circle through
+// its directions at the two instants, so a point farther than the outer angle plus the deviation from that
+// circle cannot see it during the step (first test, no orbit evaluation). The path between the instants is
+// the cubic Hermite interpolant of the buffered positions and velocities. Both modes call this with the same
+// arguments for every pair that can hold a pass, so they find the same passes to the bit.
+std::optional<HiddenPass> hidden_pass(const PointGeo& p, const PositionBuffer& b, long j, int s, const Geometry& g,
+                                      double sin_limit, double t0, double t1) {
+  const SatPos& q0 = b.pos[b.at(j - 1, s)];
+  const SatPos& q1 = b.pos[b.at(j, s)];
+  if (sin_limit < 1.0) {
+    const double nx = q0.uy * q1.uz - q0.uz * q1.uy, ny = q0.uz * q1.ux - q0.ux * q1.uz, nz = q0.ux * q1.uy - q0.uy * q1.ux;
+    const double nn = std::sqrt(nx * nx + ny * ny + nz * nz);
+    if (nn > 1e-12 && std::abs(p.ux * nx + p.uy * ny + p.uz * nz) > sin_limit * nn) return std::nullopt;
+  }
+  const SatVel& w0 = b.vel[b.at(j - 1, s)];
+  const SatVel& w1 = b.vel[b.at(j, s)];
+  const MarginSample a = true_margin(p, q0, w0, g), c = true_margin(p, q1, w1, g);
+  if (!(a.rate > 0.0 && c.rate < 0.0)) return std::nullopt;
+  const double p0[3] = {q0.x, q0.y, q0.z}, v0[3] = {w0.vx, w0.vy, w0.vz};
+  const double p1[3] = {q1.x, q1.y, q1.z}, v1[3] = {w1.vx, w1.vy, w1.vz};
+  const CubicPath path(p0, v0, p1, v1, t1 - t0);
+  return find_hidden_pass(t0, t1, a, c, [&](double tau) {
+    double r[3], v[3];
+    path.at(tau, r, v);
+    const double len = std::sqrt(r[0] * r[0] + r[1] * r[1] + r[2] * r[2]);
+    const SatPos q{r[0], r[1], r[2], r[0] / len, r[1] / len, r[2] / len};
+    return true_margin(p, q, SatVel{v[0], v[1], v[2]}, g);
+  });
+}
+
+// The time of the one rise or set of (p, s) inside (t_{j-1}, t_j) (visible at one instant, not the other),
+// as the root of the true margin along the satellite's cubic path (regula falsi, Illinois, to 1e-9 of the
+// step). Used instead of the margin's cubic in time when Geometry::roots_on_path is set.
+double path_root(const PointGeo& p, const PositionBuffer& b, long j, int s, const Geometry& g, double t0, double t1) {
+  const SatPos& q0 = b.pos[b.at(j - 1, s)];
+  const SatPos& q1 = b.pos[b.at(j, s)];
+  const SatVel& w0 = b.vel[b.at(j - 1, s)];
+  const SatVel& w1 = b.vel[b.at(j, s)];
+  const double p0[3] = {q0.x, q0.y, q0.z}, v0[3] = {w0.vx, w0.vy, w0.vz};
+  const double p1[3] = {q1.x, q1.y, q1.z}, v1[3] = {w1.vx, w1.vy, w1.vz};
+  const CubicPath path(p0, v0, p1, v1, t1 - t0);
+  const auto f = [&](double tau) {
+    double r[3], v[3];
+    path.at(tau, r, v);
+    const double len = std::sqrt(r[0] * r[0] + r[1] * r[1] + r[2] * r[2]);
+    return true_margin(p, SatPos{r[0], r[1], r[2], r[0] / len, r[1] / len, r[2] / len}, SatVel{v[0], v[1], v[2]}, g).value;
+  };
+  return t0 + (t1 - t0) * illinois_root(0.0, true_margin(p, q0, w0, g).value, 1.0, true_margin(p, q1, w1, g).value, f, 1e-9);
+}
+
+// Sine of the cross-track limit for hidden_pass from the cosine of an outer footprint angle and the track's
+// deviation bound eps: sin(lambda + eps), or 2 (no limit) when lambda + eps reaches 90 deg.
+double cross_track_sin_limit(double cos_lambda, double eps_rad) {
+  const double lam = std::acos(std::clamp(cos_lambda, -1.0, 1.0)) + eps_rad + 1e-9;
+  return lam >= pi / 2 ? 2.0 : std::sin(lam);
+}
+
+
+}  // namespace skein::coverage_engine

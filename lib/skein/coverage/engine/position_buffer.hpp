@@ -1,0 +1,34 @@
+#pragma once
+// Satellite positions and velocities (Earth-fixed) for a chunk of sample instants, and their latitude order.
+#include <cstddef>
+#include <vector>
+
+#include "skein/coverage/engine/geometry.hpp"
+
+namespace skein::coverage_engine {
+
+// Satellite positions (Earth-fixed) for a window of sample instants.
+struct PositionBuffer {
+  long first = 0, count = 0;
+  int sats = 0;
+  std::vector<SatPos> pos;   // [local * sats + s]
+  std::vector<SatVel> vel;   // [local * sats + s]
+  std::vector<SatAux> aux;   // [local * sats + s]
+  // Per instant: the largest outer footprint angle of any satellite over any row, and the largest change of a
+  // satellite's geocentric latitude since the previous instant (both rad).
+  std::vector<double> reach_rad, moved_rad;
+  // The largest angle from a satellite's ground direction at t_{j-1} or t_j to a point that can see it
+  // during the step (the outer angle at the largest orbit radius, plus the chord's half and the track's
+  // deviation bound; hidden_pass.hpp). Constant over the run.
+  double swept_reach_rad = 0.0;
+  // Culled mode only: per instant, the satellites sorted by geocentric latitude.
+  std::vector<int> by_lat;
+  std::vector<double> by_lat_sin;   // sin of the latitude, same order (contiguous for the binary searches)
+  std::vector<SatAux> by_lat_aux;   // aux in the same order
+  std::vector<SatAux> by_lat_prev;  // aux of the previous instant, same order (unset for the buffer's first)
+  size_t at(long step, int s) const { return static_cast<size_t>((step - first) * sats + s); }
+  size_t local(long step) const { return static_cast<size_t>(step - first); }
+};
+
+
+}  // namespace skein::coverage_engine

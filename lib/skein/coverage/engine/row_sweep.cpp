@@ -1,0 +1,293 @@
+#include "skein/coverage/engine/row_sweep.hpp"
+
+#include <algorithm>
+#include <cmath>
+
+#include "skein/coverage/engine/margin.hpp"
+#include "skein/coverage/engine/nearest.hpp"
+#include "skein/coverage/engine/path_events.hpp"
+#include "skein/coverage/footprint.hpp"
+
+namespace skein::coverage_engine {
+
+// Culled mode: row number r of `rows_total` over the instants [c0, c1) of the buffer.
+void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_total, long c0, long c1, Partial& acc,
+               RowScratch& scratch) {
+  const PositionBuffer& buf = sw.buf;
+  CrossingBatch& crossings = scratch.crossings;
+  std::vector<Event>& sorted = scratch.sorted;
+  std::vector<std::uint32_t>& start = scratch.start;
+  std::vector<int>& count = scratch.count;
+  std::vector<double>& top = scratch.top;
+  std::vector<int>& top_sat = scratch.top_sat;
+  std::vector<char>& open = scratch.open;
+  WindowCache& cache = scratch.cache;
+  // Footprint cosines of the last orbit radius seen on this row, made good for radii within 1 mm of it (the
+  // outer cosine of the largest radius, the inner of the smallest: both bounds shrink the safe side only,
+  // since both angles grow with the radius). Circular shells then compute them once per row.
+  constexpr double radius_tolerance_km = 1e-6;
+  double r_seen = -1.0;
+  FootprintCosines f_seen;
+  const auto cosines = [&](double r_km) {
+    if (std::abs(r_km - r_seen) > radius_tolerance_km) {
+      r_seen = r_km;
+      f_seen = {footprint_cosines(row.bounds, r_km + radius_tolerance_km).outer,
+                footprint_cosines(row.bounds, r_km - radius_tolerance_km).inner};
+    }
+    return f_seen;
+  };
+  // The same at a satellite's largest orbit radius (its outer cosine holds over a whole step), with the sine of
+  // the hidden-pass cross-track limit.
+  double r_apo_seen = -1.0, cos_apo = 1.0, sin_limit_apo = 2.0;
+  const auto apogee_outer = [&](double r_km) {
+    if (r_km != r_apo_seen) {
+      r_apo_seen = r_km;
+      cos_apo = footprint_cosines(row.bounds, r_km + radius_tolerance_km).outer;
+      sin_limit_apo = cross_track_sin_limit(cos_apo, sw.track_eps_rad);
+    }
+  };
+  if (cache.key.size() != static_cast<size_t>(sw.T)) {
+    cache.key.assign(static_cast<size_t>(sw.T), -1);
+    cache.in.assign(static_cast<size_t>(sw.T), 0.0);
+  }
+  const size_t n = row.point.size();
+  const int K = sw.K;
+  for (long step = c0; step < c1; ++step) {
+    const SatPos* sp1 = &buf.pos[buf.at(step, 0)];
+    const SatAux* sx1 = &buf.by_lat_aux[buf.at(step, 0)];
+    const int* ord = &buf.by_lat[buf.at(step, 0)];
+    const size_t ls = static_cast<size_t>(step - c0);
+    if (step == 0) {
+      // Satellites in view at the first instant, inside each satellite's outer window.
+      count.assign(n, 0);
+      const auto [a, b] = latitude_range(buf, step, row.psi, buf.reach_rad[buf.local(step)]);
+      for (int k = a; k < b; ++k) {
+        const int s = ord[k];
+        const SatAux& x = sx1[k];
+        const double h = row_half_width(row.sin_psi, row.cos_psi, x.sin_psi, x.cos_psi,
+                                        cosines(x.r_km).outer, true);
+        if (h < 0.0) continue;
+        const auto test = [&](long i) {
+          ++acc.pair_tests;
+          if (visible(sw.geo[static_cast<size_t>(row.point[static_cast<size_t>(i)])], buf, buf.at(step, s), sw.gm))
+            ++count[static_cast<size_t>(i)];
+        };
+        for_window(row, x.lon, h, test);
+      }
+      for (size_t i = 0; i < n; ++i) {
+        const size_t p = static_cast<size_t>(row.point[i]);
+        start_timeline(sw.state[p], count[i]);
+        add_covered(acc, ls, K, 0, count[i], sw.weight_q[p]);
+      }
+    } else {
+      // Rises and sets inside (t_{j-1}, t_j].
+      crossings.clear();
+      scratch.hidden.clear();
+      const double t0 = sw.smp.time(step - 1), t1 = sw.smp.time(step);
+      const SatAux* sx0 = &buf.by_lat_prev[buf.at(step, 0)];
+      // Satellites whose swept footprint can reach the row: the widest outer angle, widened as in
+      // swept_footprint_cos for the largest chord of a step.
+      const double reach = std::max(buf.swept_reach_rad, buf.reach_rad[buf.local(step - 1)]) + buf.moved_rad[buf.local(step)];
+      const auto [a, b] = latitude_range(buf, step, row.psi, reach);
+      for (int k = a; k < b; ++k) {
+        const int s = ord[k];
+        const SatAux& x1 = sx1[k];
+        const SatAux& x0 = sx0[k];
+        const FootprintCosines f1 = cosines(x1.r_km);
+        const FootprintCosines f0 = cosines(x0.r_km);
+        // The inner window of t_{j-1}, from this row's previous instant when it was computed there.
+        const size_t su = static_cast<size_t>(s);
+        const bool cached = cache.key[su] == (step - 1) * rows_total + r;
+        const double cache_in0 = cached ? cache.in[su] : no_window;
+        cache.key[su] = step * rows_total + r;
+        cache.in[su] = no_window;
+        // The windows swept over the step (hidden passes): the outer angle at the satellite's largest radius,
+        // widened for its motion between the instants. They hold the outer windows of both instants.
+        apogee_outer(sw.sat_r_apo_km[su]);
+        const SatPos& u0 = buf.pos[buf.at(step - 1, s)];
+        const SatPos& u1 = sp1[s];
+        const double c_w = swept_footprint_cos(cos_apo, sw.track_eps_rad, u0.ux * u1.ux + u0.uy * u1.uy + u0.uz * u1.uz);
+        const double sin_limit = sin_limit_apo;
+        const double h1w = row_half_width(row.sin_psi, row.cos_psi, x1.sin_psi, x1.cos_psi, c_w, true);
+        const double h0w = row_half_width(row.sin_psi, row.cos_psi, x0.sin_psi, x0.cos_psi, c_w, true);
+        if (h1w < 0.0 && h0w < 0.0) continue;
+        // Longitudes as offsets from the satellite's at t_j; d0 is its offset at t_{j-1}.
+        double d0 = x0.lon - x1.lon;
+        if (d0 > pi) d0 -= two_pi;
+        if (d0 < -pi) d0 += two_pi;
+        constexpr double whole = 4.0 * pi;  // a window that holds the whole row
+        double ulo = 1e300, uhi = -1e300;
+        if (h1w >= 0.0) {
+          ulo = h1w >= pi ? -whole : -h1w;
+          uhi = h1w >= pi ? whole : h1w;
+        }
+        if (h0w >= 0.0) {
+          ulo = std::min(ulo, h0w >= pi ? -whole : d0 - h0w);
+          uhi = std::max(uhi, h0w >= pi ? whole : d0 + h0w);
+        }
+        bool inner = false;
+        double ilo = 0.0, ihi = 0.0;
+        if (h1w >= 0.0 && h0w >= 0.0 && f1.inner <= 1.0 && f0.inner <= 1.0) {
+          const double h1i = row_half_width(row.sin_psi, row.cos_psi, x1.sin_psi, x1.cos_psi, f1.inner, false);
+          cache.in[su] = h1i;
+          const double h0i = h1i < 0.0 ? -1.0
+                             : cache_in0 != no_window
+                                 ? cache_in0
+                                 : row_half_width(row.sin_psi, row.cos_psi, x0.sin_psi, x0.cos_psi, f0.inner, false);
+          if (h1i >= 0.0 && h0i >= 0.0) {
+            ilo = std::max(h1i >= pi ? -whole : -h1i, h0i >= pi ? -whole : d0 - h0i);
+            ihi = std::min(h1i >= pi ? whole : h1i, h0i >= pi ? whole : d0 + h0i);
+            inner = ilo <= ihi;
+          }
+        }
+        if (inner && ihi - ilo >= two_pi) continue;  // the whole row sees the satellite at both instants
+        const size_t i1 = buf.at(step, s), i0 = buf.at(step - 1, s);
+        const auto add_hidden = [&](const PointGeo& pg, long i) {
+          if (const auto pass = hidden_pass(pg, buf, step, s, sw.gm, sin_limit, t0, t1)) {
+            scratch.hidden.push_back({pass->rise_s, +1, static_cast<std::uint32_t>(i)});
+            scratch.hidden.push_back({pass->set_s, -1, static_cast<std::uint32_t>(i)});
+            ++acc.hidden_passes;
+          }
+        };
+        const auto add_on_path = [&](const PointGeo& pg, int delta, long i) {
+          scratch.hidden.push_back({path_root(pg, buf, step, s, sw.gm, t0, t1), delta, static_cast<std::uint32_t>(i)});
+        };
+        const auto test = [&](long i) {
+          const size_t p = static_cast<size_t>(row.point[static_cast<size_t>(i)]);
+          const PointGeo& pg = sw.geo[p];
+          acc.pair_tests += 2;
+          if (sw.gm.polynomial) {
+            // The visibility test and the crossing share the margin's value: its sign is visible()'s, and its
+            // numbers are those crossing_bracket computes, so exhaustive mode finds the same times.
+            const PolynomialValue e1 = polynomial_value(pg, buf.pos[i1], sw.gm);
+            const PolynomialValue e0 = polynomial_value(pg, buf.pos[i0], sw.gm);
+            const bool v1 = e1.value >= 0.0, v0 = e0.value >= 0.0;
+            if (v1 != v0 && sw.gm.roots_on_path)
+              add_on_path(pg, v1 ? 1 : -1, i);
+            else if (v1 != v0)
+              crossings.add({e0.value, polynomial_rate(pg, e0, buf.vel[i0], sw.gm), e1.value,
+                             polynomial_rate(pg, e1, buf.vel[i1], sw.gm)},
+                            v1 ? 1 : -1, static_cast<std::uint32_t>(i));
+            else if (!v1)
+              add_hidden(pg, i);
+            return;
+          }
+          const bool v1 = visible(pg, buf, i1, sw.gm), v0 = visible(pg, buf, i0, sw.gm);
+          if (v1 != v0 && sw.gm.roots_on_path)
+            add_on_path(pg, v1 ? 1 : -1, i);
+          else if (v1 != v0)
+            crossings.add(crossing_bracket(pg, buf, step, s, sw.gm), v1 ? 1 : -1, static_cast<std::uint32_t>(i));
+          else if (!v1)
+            add_hidden(pg, i);
+        };
+        if (uhi - ulo >= two_pi) {
+          if (inner) {
+            for_arc(row, x1.lon + ihi, x1.lon + ilo + two_pi, true, true, test);
+          } else {
+            for_row(row, test);
+          }
+        } else if (inner) {
+          for_two_arcs(row, x1.lon + ulo, x1.lon + ilo, x1.lon + ihi, x1.lon + uhi, test);
+        } else {
+          for_arc(row, x1.lon + ulo, x1.lon + uhi, false, false, test);
+        }
+      }
+      if (crossings.n > 0 || !scratch.hidden.empty()) {
+        crossings.solve(t0, t1);
+        // Group the events by point (a counting sort, stable), then order each point's few events in time.
+        const Event* events = crossings.event.data();
+        const Event* events_end = events + crossings.n;
+        const Event* extra = scratch.hidden.data();
+        const Event* extra_end = extra + scratch.hidden.size();
+        start.assign(n + 1, 0);
+        for (const Event* e = events; e != events_end; ++e) ++start[e->point + 1];
+        for (const Event* e = extra; e != extra_end; ++e) ++start[e->point + 1];
+        for (size_t i = 0; i < n; ++i) start[i + 1] += start[i];
+        sorted.resize(crossings.n + scratch.hidden.size());
+        for (const Event* e = events; e != events_end; ++e) sorted[start[e->point]++] = *e;
+        for (const Event* e = extra; e != extra_end; ++e) sorted[start[e->point]++] = *e;
+        // start[i] is now the end of point i's run.
+        std::uint32_t begin = 0;
+        for (size_t i = 0; i < n; ++i) {
+          const std::uint32_t end = start[i];
+          if (end == begin) continue;
+          Event* eb = sorted.data() + begin;
+          Event* ee = sorted.data() + end;
+          sort_short(eb, ee);
+          const size_t p = static_cast<size_t>(row.point[i]);
+          PointState& ps = sw.state[p];
+          const int before = ps.count;
+          apply_events(ps, sw.sums(p), eb, ee, t0, t1);
+          add_covered(acc, ls, K, before, ps.count, sw.weight_q[p]);
+          begin = end;
+        }
+      }
+    }
+    // The K nearest satellites of each point, for the required radius. Only the worst (smallest) k-th cosine
+    // over time is kept, so an instant matters only if it could lower it. First the satellites that were the
+    // K nearest when the point was last searched: the k-th largest of their cosines now is a lower bound of
+    // the k-th nearest's, so when it is at least the worst so far for every k, the instant cannot lower it
+    // and the point is settled. The other points look inside the search cap, then scan exactly where fewer
+    // than K lie there, and remember the K found.
+    top.assign(n * static_cast<size_t>(K), -2.0);
+    top_sat.assign(n * static_cast<size_t>(K), -1);
+    open.assign(n, 1);
+    size_t open_points = n;
+    for (size_t i = 0; i < n; ++i) {
+      const size_t p = static_cast<size_t>(row.point[i]);
+      const int* nb = &sw.nearest[p * static_cast<size_t>(K)];
+      if (nb[0] < 0) continue;
+      double lower[max_fold_limit];
+      std::fill(lower, lower + K, -2.0);
+      for (int k = 0; k < K; ++k) insert_top(lower, K, cos_to(sw.geo[p], sp1[nb[k]]));
+      acc.distance_tests += K;
+      const double* wc = &sw.worst_cos[p * static_cast<size_t>(K)];
+      bool settled = true;
+      for (int k = 0; k < K; ++k) settled = settled && lower[k] >= wc[k];
+      if (settled) {
+        open[i] = 0;
+        --open_points;
+      }
+    }
+    if (open_points == 0) continue;
+    {
+      const auto [a, b] = latitude_range(buf, step, row.psi, sw.search_rad + 1e-9);
+      const double c = std::cos(std::min(pi, sw.search_rad + 1e-9));
+      for (int k = a; k < b; ++k) {
+        const int s = ord[k];
+        const SatAux& x = sx1[k];
+        const double h = row_half_width(row.sin_psi, row.cos_psi, x.sin_psi, x.cos_psi, c, true);
+        if (h < 0.0) continue;
+        const SatPos& q = sp1[s];
+        const auto near = [&](long i) {
+          if (!open[static_cast<size_t>(i)]) return;
+          ++acc.distance_tests;
+          const size_t o = static_cast<size_t>(i) * static_cast<size_t>(K);
+          insert_top_sat(&top[o], &top_sat[o], K, cos_to(sw.geo[static_cast<size_t>(row.point[static_cast<size_t>(i)])], q), s);
+        };
+        for_window(row, x.lon, h, near);
+      }
+    }
+    int mid = -1;
+    for (size_t i = 0; i < n; ++i) {
+      if (!open[i]) continue;
+      const size_t p = static_cast<size_t>(row.point[i]);
+      double* tp = &top[i * static_cast<size_t>(K)];
+      int* ts = &top_sat[i * static_cast<size_t>(K)];
+      if (tp[K - 1] < sw.search_cos) {
+        ++acc.fallbacks;
+        if (mid < 0) {
+          const double* zs = &buf.by_lat_sin[buf.at(step, 0)];
+          mid = static_cast<int>(std::lower_bound(zs, zs + sw.T, row.sin_psi) - zs);
+        }
+        acc.distance_tests += nearest_by_latitude(sw.geo[p], buf, step, K, tp, ts, mid);
+      }
+      std::copy(ts, ts + K, &sw.nearest[p * static_cast<size_t>(K)]);
+      double* wc = &sw.worst_cos[p * static_cast<size_t>(K)];
+      for (int k = 0; k < K; ++k) wc[k] = std::min(wc[k], tp[k]);
+    }
+  }
+}
+
+
+}  // namespace skein::coverage_engine

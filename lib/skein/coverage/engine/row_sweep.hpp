@@ -1,0 +1,36 @@
+#pragma once
+// Culled mode: one row of the grid over a chunk of instants, with footprint windows.
+#include <vector>
+
+#include "skein/coverage/engine/context.hpp"
+#include "skein/coverage/engine/crossings.hpp"
+#include "skein/coverage/engine/row_index.hpp"
+
+namespace skein::coverage_engine {
+
+// The inner half-width of each satellite's window on one row at one instant, keyed by instant * rows + row
+// (no_window when it was not needed there).
+constexpr double no_window = -1e300;
+struct WindowCache {
+  std::vector<long> key;
+  std::vector<double> in;
+};
+
+// Scratch of one worker thread in culled mode, kept across rows and chunks.
+struct RowScratch {
+  CrossingBatch crossings;
+  std::vector<Event> sorted;
+  std::vector<std::uint32_t> start;
+  std::vector<int> count;
+  std::vector<double> top;
+  std::vector<int> top_sat;
+  std::vector<char> open;
+  WindowCache cache;
+  std::vector<Event> hidden;  // rises and sets of passes found between two instants, this step
+};
+
+// Culled mode: row number r of `rows_total` over the instants [c0, c1) of the buffer (row_sweep.cpp).
+void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_total, long c0, long c1, Partial& acc,
+               RowScratch& scratch);
+
+}  // namespace skein::coverage_engine
