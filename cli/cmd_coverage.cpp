@@ -100,13 +100,13 @@ void add_coverage_command(CLI::App& app) {
     const auto threads = limit_threads(opt->threads);
     std::atomic<std::int64_t> done{0};
     CoverageResult result;
+    const CoveragePlan plan = plan_coverage(design, options);  // settings, guard and grid, once
     if (isatty(STDERR_FILENO)) {
-      const CoverageWorkEstimate est = estimate_coverage_work(design, options);
       options.progress = &done;
-      ProgressLine line(done, std::max(1.0, est.point_steps));
-      result = evaluate_coverage(design, options);
+      ProgressLine line(done, std::max(1.0, plan.estimate.point_steps));
+      result = evaluate_coverage(design, plan, options);
     } else {
-      result = evaluate_coverage(design, options);
+      result = evaluate_coverage(design, plan, options);
     }
     const Table overview = coverage_overview_table(result), folds = coverage_fold_table(result),
                 bands = coverage_band_table(result);

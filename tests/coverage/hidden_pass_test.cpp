@@ -1,4 +1,4 @@
-// Evidence for lib/skein/coverage/hidden_pass.hpp and its use by the evaluator: passes that begin and end
+// Evidence for lib/skein/coverage/engine/hidden_pass.hpp and its use by the evaluator: passes that begin and end
 // between two sample instants are found, with their durations, at any step.
 #include <doctest/doctest.h>
 
@@ -6,10 +6,11 @@
 
 #include "coverage_test_designs.hpp"
 #include "skein/coverage/evaluate.hpp"
-#include "skein/coverage/hidden_pass.hpp"
+#include "skein/coverage/engine/hidden_pass.hpp"
 #include "skein/orbit/secular.hpp"
 
 using namespace skein;
+using namespace skein::coverage_engine;
 
 namespace {
 // Inertial rate of the true longitude Omega + omega + M of an equatorial circular orbit under J2 (rad/s).

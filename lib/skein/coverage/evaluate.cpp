@@ -53,12 +53,23 @@ namespace skein {
 
 using namespace coverage_engine;
 
+CoveragePlan plan_coverage(const Design& design, const CoverageOptions& options) {
+  CoveragePlan plan;
+  plan.settings = resolve_coverage_settings(design, options);
+  check_limits(estimate_before_grid(design, plan.settings, options.mode), options);  // before the grid is built
+  plan.grid = build_grid(plan.settings.spec, design.earth);
+  plan.estimate = estimate(design, plan.settings, static_cast<long>(plan.grid.points.size()), options.mode);
+  check_limits(plan.estimate, options);
+  return plan;
+}
+
 CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& options) {
-  const CoverageSettings st = resolve_coverage_settings(design, options);
-  check_limits(estimate_before_grid(design, st, options.mode), options);  // the guard runs before the grid is built
-  const Grid grid = build_grid(st.spec, design.earth);
-  const CoverageWorkEstimate est = estimate(design, st, static_cast<long>(grid.points.size()), options.mode);
-  check_limits(est, options);
+  return evaluate_coverage(design, plan_coverage(design, options), options);
+}
+
+CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan, const CoverageOptions& options) {
+  const CoverageSettings& st = plan.settings;
+  const Grid& grid = plan.grid;
 
   const std::vector<Satellite> sats = expand_constellation(design);
   const int T = static_cast<int>(sats.size());
@@ -114,34 +125,10 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
   }
   gm.polynomial = !gm.cone && st.spec.min_elevation_deg >= 5.0;
 
-  // Hidden passes (hidden_pass.hpp): bounds of each satellite's Earth-fixed ground-direction rate over the
-  // run, from Kepler's second law (h = r^2 dnu/dt) on its mean elements with the J2 secular rates: the
-  // true-anomaly rate lies between n (1 - e)^2 / (1 - e^2)^(3/2) at apogee and n (1 + e)^2 / (1 - e^2)^(3/2)
-  // at perigee (Vallado 2013, sec. 2.2), the perigee drift and the mean-anomaly correction add at most their
-  // size, and the frame turns at the Earth's rate plus the node drift. |d2nu/dt2| = 2 (dnu/dt) |dr/dt| / r is
-  // at most 2 nu'_max n a e / (sqrt(1 - e^2) r_min).
-  TrackRates tr;
-  tr.rate_min_rad_s = 1e300;
-  double frame_rate = earth.rotation_rad_s, path_r4 = 0.0, r_apo_max = 0.0;
-  std::vector<double> r_apo(static_cast<size_t>(T));
-  for (const SecularOrbit& o : orbits) frame_rate = std::max(frame_rate, earth.rotation_rad_s + std::abs(o.rates.raan_rad_s));
-  for (int s = 0; s < T; ++s) {
-    const SecularOrbit& o = orbits[static_cast<size_t>(s)];
-    const double e = o.epoch_elements.e, a = o.epoch_elements.a_km, n = o.rates.mean_motion_rad_s;
-    const double q = std::pow(1.0 - e * e, 1.5);
-    const double extra = std::abs(o.rates.argp_rad_s) + std::abs(o.rates.mean_anomaly_rad_s - n);
-    const double nu_max = n * (1.0 + e) * (1.0 + e) / q + extra, nu_min = n * (1.0 - e) * (1.0 - e) / q - extra;
-    tr.rate_max_rad_s = std::max(tr.rate_max_rad_s, nu_max + frame_rate);
-    tr.rate_min_rad_s = std::min(tr.rate_min_rad_s, nu_min - frame_rate);
-    tr.accel_max_rad_s2 = std::max(tr.accel_max_rad_s2, 2.0 * nu_max * n * a * e / (std::sqrt(1.0 - e * e) * a * (1.0 - e)));
-    r_apo[static_cast<size_t>(s)] = a * (1.0 + e);
-    r_apo_max = std::max(r_apo_max, a * (1.0 + e));
-    path_r4 = std::max(path_r4, a * (1.0 + e) * std::pow(nu_max + frame_rate, 4));
-  }
-  tr.frame_rate_rad_s = frame_rate;
-  const double track_eps = track_deviation_bound_rad(tr, smp.step);
-  // Position error of the cubic path between two instants, h^4 max|d4r/dt4| / 384 (hidden_pass.hpp), in m.
-  const double path_error_m = 1000.0 * std::pow(smp.step, 4) * path_r4 / 384.0;
+  const PathBounds pb = path_bounds(earth, orbits, smp.step);
+  const TrackRates& tr = pb.rates;
+  const std::vector<double>& r_apo = pb.r_apo_km;
+  const double r_apo_max = pb.r_apo_max_km, track_eps = pb.track_eps_rad, path_error_m = pb.path_error_m;
   // Exhaustive mode: one cross-track limit per satellite, from an outer footprint bound good for every point
   // (the grid's smallest radius and largest vertical deflection).
   std::vector<double> sat_sin_limit(static_cast<size_t>(T), 2.0);
@@ -197,81 +184,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
     buf.first = std::max<long>(0, c0 - 1);
     const long last = c1 - 1;  // a crossing in (t_{j-1}, t_j] needs instants j-1 and j only
     buf.count = last - buf.first + 1;
-    const size_t cells = static_cast<size_t>(buf.count) * static_cast<size_t>(T);
-    buf.pos.resize(cells);
-    buf.vel.resize(cells);
-    buf.aux.resize(cells);
-    if (!exhaustive) {
-      buf.by_lat.resize(cells);
-      buf.by_lat_sin.resize(cells);
-      buf.by_lat_aux.resize(cells);
-      buf.by_lat_prev.resize(cells);
-    }
-    buf.reach_rad.assign(static_cast<size_t>(buf.count), 0.0);
-    buf.moved_rad.assign(static_cast<size_t>(buf.count), 0.0);
-    tbb::parallel_for(tbb::blocked_range<long>(0, buf.count), [&](const tbb::blocked_range<long>& r) {
-      for (long l = r.begin(); l < r.end(); ++l) {
-        const long step = buf.first + l;
-        const double t = smp.time(step);
-        const double theta = theta0 + earth.rotation_rad_s * t;
-        double r_max = 0.0;
-        for (int s = 0; s < T; ++s) {
-          const StateVector sv = state_at(earth, orbits[static_cast<size_t>(s)], t);
-          const Eigen::Vector3d r_ef = inertial_to_earth_fixed(sv.r_km, theta);
-          const size_t i = buf.at(step, s);
-          const double len = r_ef.norm();
-          // Time derivative of the secular-model position (not the osculating Kepler velocity): with the rates of
-          // M, omega and Omega, dr/dt = v_kep (dM/dt)/n + (domega/dt) h x r + (dOmega/dt) z x r, h the orbit normal
-          // (chain rule on r(Omega(t), omega(t), M(t)); v_kep = n dr/dM, Vallado 2013 sec. 2.3).
-          const SecularRates& rt = orbits[static_cast<size_t>(s)].rates;
-          const Eigen::Vector3d h_unit = sv.r_km.cross(sv.v_km_s).normalized();
-          const Eigen::Vector3d v_in = sv.v_km_s * (rt.mean_anomaly_rad_s / rt.mean_motion_rad_s) +
-                                       rt.argp_rad_s * h_unit.cross(sv.r_km) +
-                                       rt.raan_rad_s * Eigen::Vector3d(-sv.r_km.y(), sv.r_km.x(), 0.0);
-          // Earth-fixed velocity: v_ef = R3(theta) v_in - w x r_ef, with w = (0, 0, w_E) (rotating-frame kinematics).
-          const Eigen::Vector3d v_ef = inertial_to_earth_fixed(v_in, theta) +
-                                       Eigen::Vector3d(earth.rotation_rad_s * r_ef.y(), -earth.rotation_rad_s * r_ef.x(), 0.0);
-          const double uz = std::clamp(r_ef.z() / len, -1.0, 1.0);
-          buf.pos[i] = {r_ef.x(), r_ef.y(), r_ef.z(), r_ef.x() / len, r_ef.y() / len, r_ef.z() / len};
-          buf.vel[i] = {v_ef.x(), v_ef.y(), v_ef.z()};
-          buf.aux[i] = {uz, std::sqrt(1.0 - uz * uz), std::atan2(r_ef.y(), r_ef.x()), len};
-          r_max = std::max(r_max, len);
-        }
-        if (exhaustive) continue;  // the latitude order below serves the row sweep only
-        buf.reach_rad[static_cast<size_t>(l)] = reach_of(r_max);
-        const size_t base = buf.at(step, 0);
-        int* ord = &buf.by_lat[base];
-        std::iota(ord, ord + T, 0);
-        std::sort(ord, ord + T, [&](int a, int b) {
-          const double za = buf.pos[base + static_cast<size_t>(a)].uz, zb = buf.pos[base + static_cast<size_t>(b)].uz;
-          return za != zb ? za < zb : a < b;
-        });
-        for (int k = 0; k < T; ++k) {
-          const SatAux& x = buf.aux[base + static_cast<size_t>(ord[k])];
-          buf.by_lat_sin[base + static_cast<size_t>(k)] = x.sin_psi;
-          buf.by_lat_aux[base + static_cast<size_t>(k)] = x;
-        }
-      }
-    });
-    // Largest change of latitude of any satellite since the previous instant, and the previous instant's data
-    // in this instant's latitude order (the first instant of the buffer has none before it in the buffer; it
-    // is only ever used as t_{j-1}).
-    if (!exhaustive)
-      tbb::parallel_for(tbb::blocked_range<long>(1, std::max(1L, buf.count)), [&](const tbb::blocked_range<long>& r) {
-      for (long l = r.begin(); l < r.end(); ++l) {
-        const long step = buf.first + l;
-        const size_t base = buf.at(step, 0);
-        double moved = 0.0;
-        for (int k = 0; k < T; ++k) {
-          const int s = buf.by_lat[base + static_cast<size_t>(k)];
-          const SatAux& x1 = buf.by_lat_aux[base + static_cast<size_t>(k)];
-          const SatAux& x0 = buf.aux[buf.at(step - 1, s)];
-          buf.by_lat_prev[base + static_cast<size_t>(k)] = x0;
-          moved = std::max(moved, std::abs(std::asin(x1.sin_psi) - std::asin(x0.sin_psi)));
-        }
-        buf.moved_rad[static_cast<size_t>(l)] = moved + 1e-9;
-      }
-    });
+    fill_positions(buf, orbits, earth, theta0, smp, !exhaustive, reach_of);
 
     const size_t nsteps = static_cast<size_t>(c1 - c0);
     Partial identity;
@@ -346,90 +259,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& op
   res.hidden_passes = hidden_passes;
   res.track_deviation_bound_deg = track_eps * deg_per_rad;
   res.path_error_bound_m = path_error_m;
-  res.points.resize(P);
-  res.required_radius_deg.assign(static_cast<size_t>(K), 0.0);
-  res.in_view_fraction.assign(in_view_bins, 0.0);
-  for (size_t p = 0; p < P; ++p) {
-    PointState& ps = state[p];
-    if (ps.in_gap && smp.span - ps.gap_start > 0.0) ps.gaps.push_back(static_cast<float>(smp.span - ps.gap_start));
-    PointCoverage& pc = res.points[p];
-    pc.point = grid.points[p];
-    // Time with at least k in view: the bins above k - 1, summed from the top.
-    double at_least[max_fold_limit];
-    {
-      const double* h = &hist[p * in_view_bins];
-      double above = 0.0;
-      for (int n = in_view_bins - 1; n >= 1; --n) {
-        above += h[n];
-        if (n <= K) at_least[n - 1] = above;
-      }
-    }
-    for (int k = 0; k < K; ++k) {
-      pc.percent_by_fold.push_back(100.0 * at_least[k] / smp.span);
-      const double rd = std::acos(std::clamp(worst_cos[p * static_cast<size_t>(K) + static_cast<size_t>(k)], -1.0, 1.0)) * deg_per_rad;
-      pc.radius_deg_by_fold.push_back(rd);
-      res.required_radius_deg[static_cast<size_t>(k)] = std::max(res.required_radius_deg[static_cast<size_t>(k)], rd);
-    }
-    pc.gap_count = static_cast<long>(ps.gaps.size());
-    if (!ps.gaps.empty()) {
-      std::vector<float> sorted = ps.gaps;
-      std::sort(sorted.begin(), sorted.end());
-      double sum = 0.0, sq = 0.0;
-      for (float g : sorted) {
-        sum += g;
-        sq += static_cast<double>(g) * g;
-      }
-      pc.max_gap_s = sorted.back();
-      pc.mean_gap_s = sum / static_cast<double>(sorted.size());
-      // Nearest-rank percentile: the ceil(0.95 n)-th smallest (common practice).
-      const size_t rank = static_cast<size_t>(std::ceil(0.95 * static_cast<double>(sorted.size())));
-      pc.p95_gap_s = sorted[std::max<size_t>(rank, 1) - 1];
-      // Mean response time: a request at a time inside a gap of length g waits on average g/2, so the time
-      // average over the span is sum(g^2) / (2 span) (SMAD 3rd ed. sec. 7.2, "mean response time").
-      pc.mean_response_time_s = sq / (2.0 * smp.span);
-    }
-    pc.mean_in_view = ps.count_time / smp.span;
-    pc.max_in_view = ps.max_in_view;
-    for (int n = 0; n < in_view_bins; ++n)
-      res.in_view_fraction[static_cast<size_t>(n)] += pc.point.area_weight * hist[p * in_view_bins + static_cast<size_t>(n)] / smp.span;
-  }
-  for (int k = 0; k < K; ++k)
-    res.worst_instant_covered_percent.push_back(
-        total_q > 0 ? 100.0 * static_cast<double>(worst_q[static_cast<size_t>(k)]) / static_cast<double>(total_q) : 0.0);
-
-  std::vector<size_t> all(P);
-  std::iota(all.begin(), all.end(), 0);
-  res.total = aggregate(res.points, all, state, K, 1.0);
-  const int nbands = static_cast<int>(std::lround(180.0 / st.spec.band_width_deg));
-  std::vector<std::vector<size_t>> members(static_cast<size_t>(nbands));
-  for (size_t p = 0; p < P; ++p) {
-    const int b = std::clamp(static_cast<int>(std::floor((grid.points[p].lat_deg + 90.0) / st.spec.band_width_deg)), 0, nbands - 1);
-    members[static_cast<size_t>(b)].push_back(p);
-  }
-  for (int b = 0; b < nbands; ++b) {
-    if (members[static_cast<size_t>(b)].empty()) continue;
-    LatitudeBand band;
-    band.lat_min_deg = -90.0 + b * st.spec.band_width_deg;
-    band.lat_max_deg = band.lat_min_deg + st.spec.band_width_deg;
-    band.metrics = aggregate(res.points, members[static_cast<size_t>(b)], state, K, 1.0);
-    res.bands.push_back(std::move(band));
-  }
-  std::vector<std::pair<float, double>> pooled;
-  for (size_t p = 0; p < P; ++p)
-    for (float g : state[p].gaps) pooled.emplace_back(g, grid.points[p].area_weight);
-  if (!pooled.empty()) {
-    std::stable_sort(pooled.begin(), pooled.end(), [](const auto& x, const auto& y) { return x.first < y.first; });
-    double total = 0.0;
-    for (const auto& v : pooled) total += v.second;
-    res.gap_quantiles_s.push_back(pooled.front().first);
-    double cum = 0.0;
-    size_t i = 0;
-    for (int q = 1; q <= 100; ++q) {
-      const double target = q / 100.0 * total * (1.0 - 1e-12);
-      while (i + 1 < pooled.size() && cum + pooled[i].second < target) cum += pooled[i++].second;
-      res.gap_quantiles_s.push_back(pooled[i].first);
-    }
-  }
+  collect_metrics(res, grid, state, hist, worst_cos, worst_q, total_q, smp, st.spec.band_width_deg);
   return res;
 }
 

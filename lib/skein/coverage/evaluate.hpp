@@ -6,6 +6,7 @@
 #include <cstdint>
 #include <optional>
 
+#include "skein/coverage/grid.hpp"
 #include "skein/coverage/result.hpp"
 #include "skein/design/design.hpp"
 
@@ -47,8 +48,20 @@ struct CoverageWorkEstimate {
 };
 CoverageWorkEstimate estimate_coverage_work(const Design& design, const CoverageOptions& options);
 
-// Run the evaluation. Throws InputError, before any work, for bad settings or (unless options.force) when
-// the estimate exceeds options.memory_limit_bytes or options.pair_test_limit.
+// A run made ready: settings resolved, the guard passed, the grid built and the estimate made, once. The
+// guard runs on the point count computed from spacing and extent before the grid is built.
+struct CoveragePlan {
+  CoverageSettings settings;
+  Grid grid;
+  CoverageWorkEstimate estimate;
+};
+// Throws InputError, before any work, for bad settings or (unless options.force) when the estimate exceeds
+// options.memory_limit_bytes or options.pair_test_limit.
+CoveragePlan plan_coverage(const Design& design, const CoverageOptions& options);
+
+// Run a planned evaluation (the plan made from the same design and options).
+CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan, const CoverageOptions& options);
+// Plan and run. Throws as plan_coverage.
 CoverageResult evaluate_coverage(const Design& design, const CoverageOptions& options = {});
 
 }  // namespace skein

@@ -3,6 +3,8 @@
 #include <cassert>
 #include <cmath>
 
+#include <Eigen/Geometry>
+
 namespace skein {
 
 double eccentric_anomaly_rad(double mean_anomaly_rad, double e) {
@@ -61,6 +63,20 @@ StateVector state_at(const EarthModel& earth, const SecularOrbit& orbit, double 
 Eigen::Vector3d inertial_to_earth_fixed(const Eigen::Vector3d& r_eci, double greenwich_angle_rad) {
   const double c = std::cos(greenwich_angle_rad), s = std::sin(greenwich_angle_rad);
   return Eigen::Vector3d(c * r_eci.x() + s * r_eci.y(), -s * r_eci.x() + c * r_eci.y(), r_eci.z());
+}
+
+EarthFixedState earth_fixed_state_at(const EarthModel& earth, const SecularOrbit& orbit, double theta_rad, double dt_s) {
+  const StateVector sv = state_at(earth, orbit, dt_s);
+  EarthFixedState out;
+  out.r_km = inertial_to_earth_fixed(sv.r_km, theta_rad);
+  const SecularRates& rt = orbit.rates;
+  const Eigen::Vector3d h_unit = sv.r_km.cross(sv.v_km_s).normalized();
+  const Eigen::Vector3d v_in = sv.v_km_s * (rt.mean_anomaly_rad_s / rt.mean_motion_rad_s) +
+                               rt.argp_rad_s * h_unit.cross(sv.r_km) +
+                               rt.raan_rad_s * Eigen::Vector3d(-sv.r_km.y(), sv.r_km.x(), 0.0);
+  out.v_km_s = inertial_to_earth_fixed(v_in, theta_rad) +
+               Eigen::Vector3d(earth.rotation_rad_s * out.r_km.y(), -earth.rotation_rad_s * out.r_km.x(), 0.0);
+  return out;
 }
 
 }  // namespace skein

@@ -40,6 +40,17 @@ MeanElements elements_at(const SecularOrbit& orbit, double dt_s);
 // Inertial state dt_s seconds after epoch.
 StateVector state_at(const EarthModel& earth, const SecularOrbit& orbit, double dt_s);
 
+// Earth-fixed position (km) and velocity (km/s) of a satellite dt_s seconds after epoch, with the Greenwich
+// angle theta_rad at that time. The velocity is the time derivative of the J2 secular-model position, not the
+// osculating Kepler velocity: with the rates of M, omega and Omega, dr/dt = v_kep (dM/dt)/n + (domega/dt) h x r
+// + (dOmega/dt) z x r, h the orbit normal (chain rule on r(Omega(t), omega(t), M(t)); v_kep = n dr/dM, Vallado
+// 2013 sec. 2.3), then v_ef = R3(theta) v_in - w x r_ef with w = (0, 0, w_E) (rotating-frame kinematics).
+struct EarthFixedState {
+  Eigen::Vector3d r_km = Eigen::Vector3d::Zero();
+  Eigen::Vector3d v_km_s = Eigen::Vector3d::Zero();
+};
+EarthFixedState earth_fixed_state_at(const EarthModel& earth, const SecularOrbit& orbit, double theta_rad, double dt_s);
+
 // Rotate an inertial vector into the Earth-fixed frame given the Greenwich sidereal angle theta (rad):
 // r_ecef = R3(theta) r_eci (polar motion and the equation of the equinoxes are neglected).
 Eigen::Vector3d inertial_to_earth_fixed(const Eigen::Vector3d& r_eci, double greenwich_angle_rad);

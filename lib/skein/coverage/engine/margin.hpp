@@ -6,7 +6,7 @@
 #include "skein/coverage/engine/crossings.hpp"
 #include "skein/coverage/engine/geometry.hpp"
 #include "skein/coverage/engine/position_buffer.hpp"
-#include "skein/coverage/hidden_pass.hpp"
+#include "skein/coverage/engine/hidden_pass.hpp"
 
 namespace skein::coverage_engine {
 

@@ -1,6 +1,8 @@
 #include "skein/coverage/engine/metrics.hpp"
 
 #include <algorithm>
+#include <cmath>
+#include <numeric>
 
 namespace skein::coverage_engine {
 
@@ -53,5 +55,96 @@ CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::ve
   return a;
 }
 
+
+void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointState>& state, const std::vector<double>& hist,
+                     const std::vector<double>& worst_cos, const std::vector<std::int64_t>& worst_q, std::int64_t total_q,
+                     const Sampling& smp, double band_width_deg) {
+  const size_t P = grid.points.size();
+  const int K = res.max_fold;
+  res.points.resize(P);
+  res.required_radius_deg.assign(static_cast<size_t>(K), 0.0);
+  res.in_view_fraction.assign(in_view_bins, 0.0);
+  for (size_t p = 0; p < P; ++p) {
+    PointState& ps = state[p];
+    if (ps.in_gap && smp.span - ps.gap_start > 0.0) ps.gaps.push_back(static_cast<float>(smp.span - ps.gap_start));
+    PointCoverage& pc = res.points[p];
+    pc.point = grid.points[p];
+    // Time with at least k in view: the bins above k - 1, summed from the top.
+    double at_least[max_fold_limit];
+    {
+      const double* h = &hist[p * in_view_bins];
+      double above = 0.0;
+      for (int n = in_view_bins - 1; n >= 1; --n) {
+        above += h[n];
+        if (n <= K) at_least[n - 1] = above;
+      }
+    }
+    for (int k = 0; k < K; ++k) {
+      pc.percent_by_fold.push_back(100.0 * at_least[k] / smp.span);
+      const double rd = std::acos(std::clamp(worst_cos[p * static_cast<size_t>(K) + static_cast<size_t>(k)], -1.0, 1.0)) * deg_per_rad;
+      pc.radius_deg_by_fold.push_back(rd);
+      res.required_radius_deg[static_cast<size_t>(k)] = std::max(res.required_radius_deg[static_cast<size_t>(k)], rd);
+    }
+    pc.gap_count = static_cast<long>(ps.gaps.size());
+    if (!ps.gaps.empty()) {
+      std::vector<float> sorted = ps.gaps;
+      std::sort(sorted.begin(), sorted.end());
+      double sum = 0.0, sq = 0.0;
+      for (float g : sorted) {
+        sum += g;
+        sq += static_cast<double>(g) * g;
+      }
+      pc.max_gap_s = sorted.back();
+      pc.mean_gap_s = sum / static_cast<double>(sorted.size());
+      // Nearest-rank percentile: the ceil(0.95 n)-th smallest (common practice).
+      const size_t rank = static_cast<size_t>(std::ceil(0.95 * static_cast<double>(sorted.size())));
+      pc.p95_gap_s = sorted[std::max<size_t>(rank, 1) - 1];
+      // Mean response time: a request at a time inside a gap of length g waits on average g/2, so the time
+      // average over the span is sum(g^2) / (2 span) (SMAD 3rd ed. sec. 7.2, "mean response time").
+      pc.mean_response_time_s = sq / (2.0 * smp.span);
+    }
+    pc.mean_in_view = ps.count_time / smp.span;
+    pc.max_in_view = ps.max_in_view;
+    for (int n = 0; n < in_view_bins; ++n)
+      res.in_view_fraction[static_cast<size_t>(n)] += pc.point.area_weight * hist[p * in_view_bins + static_cast<size_t>(n)] / smp.span;
+  }
+  for (int k = 0; k < K; ++k)
+    res.worst_instant_covered_percent.push_back(
+        total_q > 0 ? 100.0 * static_cast<double>(worst_q[static_cast<size_t>(k)]) / static_cast<double>(total_q) : 0.0);
+
+  std::vector<size_t> all(P);
+  std::iota(all.begin(), all.end(), 0);
+  res.total = aggregate(res.points, all, state, K, 1.0);
+  const int nbands = static_cast<int>(std::lround(180.0 / band_width_deg));
+  std::vector<std::vector<size_t>> members(static_cast<size_t>(nbands));
+  for (size_t p = 0; p < P; ++p) {
+    const int b = std::clamp(static_cast<int>(std::floor((grid.points[p].lat_deg + 90.0) / band_width_deg)), 0, nbands - 1);
+    members[static_cast<size_t>(b)].push_back(p);
+  }
+  for (int b = 0; b < nbands; ++b) {
+    if (members[static_cast<size_t>(b)].empty()) continue;
+    LatitudeBand band;
+    band.lat_min_deg = -90.0 + b * band_width_deg;
+    band.lat_max_deg = band.lat_min_deg + band_width_deg;
+    band.metrics = aggregate(res.points, members[static_cast<size_t>(b)], state, K, 1.0);
+    res.bands.push_back(std::move(band));
+  }
+  std::vector<std::pair<float, double>> pooled;
+  for (size_t p = 0; p < P; ++p)
+    for (float g : state[p].gaps) pooled.emplace_back(g, grid.points[p].area_weight);
+  if (!pooled.empty()) {
+    std::stable_sort(pooled.begin(), pooled.end(), [](const auto& x, const auto& y) { return x.first < y.first; });
+    double total = 0.0;
+    for (const auto& v : pooled) total += v.second;
+    res.gap_quantiles_s.push_back(pooled.front().first);
+    double cum = 0.0;
+    size_t i = 0;
+    for (int q = 1; q <= 100; ++q) {
+      const double target = q / 100.0 * total * (1.0 - 1e-12);
+      while (i + 1 < pooled.size() && cum + pooled[i].second < target) cum += pooled[i++].second;
+      res.gap_quantiles_s.push_back(pooled[i].first);
+    }
+  }
+}
 
 }  // namespace skein::coverage_engine

@@ -4,6 +4,8 @@
 #include <vector>
 
 #include "skein/coverage/engine/timeline.hpp"
+#include "skein/coverage/engine/settings.hpp"
+#include "skein/coverage/grid.hpp"
 #include "skein/coverage/result.hpp"
 
 namespace skein::coverage_engine {
@@ -13,5 +15,13 @@ double weighted_quantile(std::vector<std::pair<float, double>>& sample, double q
 // Area-weighted aggregate of the points `members` (metrics.cpp).
 CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::vector<size_t>& members,
                             const std::vector<PointState>& state, int K, double total_weight);
+
+// The metrics of a finished run into `res` (whose run fields the driver set): per point (percent by fold from
+// the in-view time bins, required radius from the worst k-th nearest cosine, gaps, response time, in view),
+// the area-weighted total and latitude bands, the worst-instant share by fold and the pooled gap quantiles.
+// The open gap at the end of the span is closed here.
+void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointState>& state, const std::vector<double>& hist,
+                     const std::vector<double>& worst_cos, const std::vector<std::int64_t>& worst_q, std::int64_t total_q,
+                     const Sampling& smp, double band_width_deg);
 
 }  // namespace skein::coverage_engine

@@ -67,4 +67,40 @@ double cross_track_sin_limit(double cos_lambda, double eps_rad) {
 }
 
 
+PathBounds path_bounds(const EarthModel& earth, const std::vector<SecularOrbit>& orbits, double step_s) {
+  // Hidden passes (hidden_pass.hpp): bounds of each satellite's Earth-fixed ground-direction rate over the
+  // run, from Kepler's second law (h = r^2 dnu/dt) on its mean elements with the J2 secular rates: the
+  // true-anomaly rate lies between n (1 - e)^2 / (1 - e^2)^(3/2) at apogee and n (1 + e)^2 / (1 - e^2)^(3/2)
+  // at perigee (Vallado 2013, sec. 2.2), the perigee drift and the mean-anomaly correction add at most their
+  // size, and the frame turns at the Earth's rate plus the node drift. |d2nu/dt2| = 2 (dnu/dt) |dr/dt| / r is
+  // at most 2 nu'_max n a e / (sqrt(1 - e^2) r_min).
+  PathBounds pb;
+  TrackRates& tr = pb.rates;
+  const int T = static_cast<int>(orbits.size());
+  tr.rate_min_rad_s = 1e300;
+  double frame_rate = earth.rotation_rad_s, path_r4 = 0.0, r_apo_max = 0.0;
+  std::vector<double>& r_apo = pb.r_apo_km;
+  r_apo.resize(static_cast<size_t>(T));
+  for (const SecularOrbit& o : orbits) frame_rate = std::max(frame_rate, earth.rotation_rad_s + std::abs(o.rates.raan_rad_s));
+  for (int s = 0; s < T; ++s) {
+    const SecularOrbit& o = orbits[static_cast<size_t>(s)];
+    const double e = o.epoch_elements.e, a = o.epoch_elements.a_km, n = o.rates.mean_motion_rad_s;
+    const double q = std::pow(1.0 - e * e, 1.5);
+    const double extra = std::abs(o.rates.argp_rad_s) + std::abs(o.rates.mean_anomaly_rad_s - n);
+    const double nu_max = n * (1.0 + e) * (1.0 + e) / q + extra, nu_min = n * (1.0 - e) * (1.0 - e) / q - extra;
+    tr.rate_max_rad_s = std::max(tr.rate_max_rad_s, nu_max + frame_rate);
+    tr.rate_min_rad_s = std::min(tr.rate_min_rad_s, nu_min - frame_rate);
+    tr.accel_max_rad_s2 = std::max(tr.accel_max_rad_s2, 2.0 * nu_max * n * a * e / (std::sqrt(1.0 - e * e) * a * (1.0 - e)));
+    r_apo[static_cast<size_t>(s)] = a * (1.0 + e);
+    r_apo_max = std::max(r_apo_max, a * (1.0 + e));
+    path_r4 = std::max(path_r4, a * (1.0 + e) * std::pow(nu_max + frame_rate, 4));
+  }
+  tr.frame_rate_rad_s = frame_rate;
+  pb.track_eps_rad = track_deviation_bound_rad(tr, step_s);
+  // Position error of the cubic path between two instants, h^4 max|d4r/dt4| / 384 (hidden_pass.hpp), in m.
+  pb.path_error_m = 1000.0 * std::pow(step_s, 4) * path_r4 / 384.0;
+  pb.r_apo_max_km = r_apo_max;
+  return pb;
+}
+
 }  // namespace skein::coverage_engine

@@ -2,10 +2,12 @@
 // Rises and sets found on the satellite's path between two instants: passes wholly between them, and
 // crossing times where the margin's cubic in time is too coarse.
 #include <optional>
+#include <vector>
 
 #include "skein/coverage/engine/geometry.hpp"
 #include "skein/coverage/engine/position_buffer.hpp"
-#include "skein/coverage/hidden_pass.hpp"
+#include "skein/coverage/engine/hidden_pass.hpp"
+#include "skein/orbit/propagate.hpp"
 
 namespace skein::coverage_engine {
 
@@ -23,5 +25,17 @@ double path_root(const PointGeo& p, const PositionBuffer& b, long j, int s, cons
 // Sine of the cross-track limit for hidden_pass from the cosine of an outer footprint angle and the track's
 // deviation bound eps: sin(lambda + eps), or 2 (no limit) when lambda + eps reaches 90 deg.
 double cross_track_sin_limit(double cos_lambda, double eps_rad);
+
+// The bounds the search between instants rests on, for a run's satellites and step: the ground-direction rate
+// bounds, each satellite's largest orbit radius, the track's deviation from its chord over a step and the
+// cubic path's position error (path_events.cpp states the derivations).
+struct PathBounds {
+  TrackRates rates;
+  std::vector<double> r_apo_km;
+  double r_apo_max_km = 0.0;
+  double track_eps_rad = 0.0;
+  double path_error_m = 0.0;
+};
+PathBounds path_bounds(const EarthModel& earth, const std::vector<SecularOrbit>& orbits, double step_s);
 
 }  // namespace skein::coverage_engine

@@ -1,9 +1,12 @@
 #pragma once
 // Satellite positions and velocities (Earth-fixed) for a chunk of sample instants, and their latitude order.
 #include <cstddef>
+#include <functional>
 #include <vector>
 
 #include "skein/coverage/engine/geometry.hpp"
+#include "skein/coverage/engine/settings.hpp"
+#include "skein/orbit/propagate.hpp"
 
 namespace skein::coverage_engine {
 
@@ -30,5 +33,12 @@ struct PositionBuffer {
   size_t local(long step) const { return static_cast<size_t>(step - first); }
 };
 
+
+// Fill the buffer's instants [first, first + count) (set by the caller) with every satellite's Earth-fixed
+// position and velocity (the J2 secular model; orbit/propagate.hpp), and, for the culled mode, the latitude
+// order, the widest outer footprint angle per instant (reach_of of the largest radius) and the largest change
+// of latitude since the previous instant. Parallel over instants; the result does not depend on the threads.
+void fill_positions(PositionBuffer& buf, const std::vector<SecularOrbit>& orbits, const EarthModel& earth, double theta0_rad,
+                    const Sampling& smp, bool culled, const std::function<double(double)>& reach_of);
 
 }  // namespace skein::coverage_engine

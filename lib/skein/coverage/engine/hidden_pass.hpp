@@ -15,7 +15,7 @@
 #include <cmath>
 #include <optional>
 
-namespace skein {
+namespace skein::coverage_engine {
 
 // Bound on the geodesic deviation of a satellite's Earth-fixed ground direction u(t) from the great-circle
 // arc joining u(t0) and u(t1), for a step of h seconds.
@@ -172,4 +172,4 @@ std::optional<HiddenPass> find_hidden_pass(double t0, double t1, MarginSample a,
   return HiddenPass{t0 + rise * h, t0 + std::max(set, rise) * h};
 }
 
-}  // namespace skein
+}  // namespace skein::coverage_engine
