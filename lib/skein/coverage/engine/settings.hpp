@@ -5,7 +5,8 @@
 #include <optional>
 
 #include "skein/constants.hpp"
-#include "skein/coverage/evaluate.hpp"
+#include "skein/coverage/options.hpp"
+#include "skein/design/design.hpp"
 
 namespace skein::coverage_engine {
 
