@@ -90,7 +90,7 @@ nlohmann::ordered_json budget_to_json(const BudgetResult& r, double re) {
   j["warnings"] = r.warnings;
   j["fleet_dv_m_s"] = r.fleet_dv_m_s;
   j["fleet_propellant_kg"] = opt_json(r.fleet_propellant_kg);
-  j["fleet_propellant_missing"] = r.fleet_propellant_kg ? J() : J("no isp_s");
+  j["fleet_propellant_status"] = r.fleet_propellant_kg ? "computed" : "no isp_s";
   J shells = J::array();
   for (const auto& s : r.shells) {
     J o;
@@ -118,8 +118,9 @@ nlohmann::ordered_json budget_to_json(const BudgetResult& r, double re) {
     o["total_dv_m_s"] = s.total_dv_m_s;
     o["fleet_dv_m_s"] = s.fleet_dv_m_s;
     o["propellant_kg"] = opt_json(s.propellant_kg);
-    // null with a reason: "no isp_s". A non-finite propellant never reaches here (compute_budget refuses it).
-    o["propellant_missing"] = s.propellant_missing.empty() ? J() : J(s.propellant_missing);
+    // Why propellant_kg is null: "computed" or "no isp_s". A non-finite propellant never reaches here
+    // (compute_budget refuses it), so null always means "not computed" and this says why.
+    o["propellant_status"] = s.propellant_missing.empty() ? std::string("computed") : s.propellant_missing;
     o["fleet_propellant_kg"] = opt_json(s.fleet_propellant_kg);
     o["exceeds_tank"] = s.exceeds_tank;
     o["disposal_perigee_km"] = s.disposal_perigee_km;
