@@ -84,6 +84,15 @@ TEST_CASE("a huge ballistic coefficient re-enters fast, never 'at least 200 year
   CHECK(std::isfinite(s.total_dv_m_s));
 }
 
+TEST_CASE("a decay the integrator cannot follow is 'failed', never a lower bound") {
+  // A density model that returns NaN (a broken model) must not end as "still in orbit at the horizon".
+  const DensityFn broken = [](double, double) { return std::nan(""); };
+  DecayOptions opt;
+  opt.record = false;
+  const DecayResult r = integrate_decay(wgs84, broken, 0.01, {0.0, wgs84.radius_km + 550.0, 0.0}, opt);
+  CHECK(r.stop == DecayStop::failed);
+}
+
 TEST_CASE("a non-finite figure is refused with the shell and the cause") {
   // The same spacecraft with isp_s 220: the rocket equation's exp(dv / (g0 Isp)) overflows a double.
   try {
