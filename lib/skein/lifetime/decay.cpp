@@ -96,6 +96,7 @@ DecayResult integrate_decay(const EarthModel& earth, const DensityFn& density, d
     // One RK4 step; halved while it leaves a non-finite state or a mean orbit below the Earth's surface
     // (where the rates are meaningless): the step rule above keeps that rare, the halving keeps it safe.
     DecayPoint next;
+    bool sound = false;
     while (true) {
       const DragRates k2 = rates(s.t_days + dt / 2, s.a_km + dt / 2 * k1.da_km_per_day, s.e + dt / 2 * k1.de_per_day);
       const DragRates k3 = rates(s.t_days + dt / 2, s.a_km + dt / 2 * k2.da_km_per_day, s.e + dt / 2 * k2.de_per_day);
@@ -103,13 +104,13 @@ DecayResult integrate_decay(const EarthModel& earth, const DensityFn& density, d
       next.t_days = s.t_days + dt;
       next.a_km = s.a_km + dt / 6 * (k1.da_km_per_day + 2 * k2.da_km_per_day + 2 * k3.da_km_per_day + k4.da_km_per_day);
       next.e = s.e + dt / 6 * (k1.de_per_day + 2 * k2.de_per_day + 2 * k3.de_per_day + k4.de_per_day);
-      const bool sound = std::isfinite(next.a_km) && std::isfinite(next.e) && next.a_km > earth.radius_km &&
-                         next.e < 1.0 && next.t_days > s.t_days;
+      sound = std::isfinite(next.a_km) && std::isfinite(next.e) && next.a_km > earth.radius_km && next.e < 1.0 &&
+              next.t_days > s.t_days;
       if (sound) break;
       dt *= 0.5;
       if (!(dt > min_step_days)) break;
     }
-    if (!(dt > min_step_days) && !(std::isfinite(next.a_km) && next.a_km > earth.radius_km)) {
+    if (!sound) {
       out.stop = DecayStop::failed;
       break;
     }
