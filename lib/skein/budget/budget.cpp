@@ -24,7 +24,7 @@ DensityFn density_of(const OrbitAtmosphere& atm) {
 }
 
 // A failed decay integration is never a lifetime nor a lower bound: refuse it.
-const DecayResult& require_decay(const DecayResult& r, std::string_view what) {
+DecayResult require_decay(DecayResult r, std::string_view what) {
   if (r.stop == DecayStop::failed)
     throw InputError(fmt::format("the natural-decay integration of the {} failed (stopped at {:.6g} days, "
                                  "semi-major axis {:.6g} km, after {} steps); expected a spacecraft and orbit the orbit-averaged "
@@ -64,7 +64,7 @@ Makeup drag_makeup(const EarthModel& earth, const OrbitAtmosphere& atm, double b
   double t = 0.0;
   while (t < life_days) {
     opt.horizon_days = life_days - t;
-    const DecayResult& r = require_decay(integrate_decay(earth, rho, b, {t, a0, e0}, opt), "drag make-up cycle");
+    const DecayResult r = require_decay(integrate_decay(earth, rho, b, {t, a0, e0}, opt), "drag make-up cycle");
     if (r.stop == DecayStop::reentry) {
       m.reentered = true;
       return m;
@@ -374,7 +374,7 @@ double natural_lifetime_days(const EarthModel& earth, const OrbitAtmosphere& atm
   opt.reentry_altitude_km = reentry_km;
   opt.horizon_days = horizon_days;
   opt.record = false;
-  const DecayResult& r = require_decay(integrate_decay(earth, density_of(atm), b, {t0_days, a_km, e}, opt), "orbit");
+  const DecayResult r = require_decay(integrate_decay(earth, density_of(atm), b, {t0_days, a_km, e}, opt), "orbit");
   if (lower_bound) *lower_bound = r.stop != DecayStop::reentry;
   return r.end.t_days - t0_days;
 }
