@@ -14,6 +14,7 @@ usage: check_report.py SKEIN DESIGN WORKDIR
 """
 import filecmp
 import json
+import html
 import math
 import os
 import re
@@ -131,11 +132,18 @@ for stem in os.listdir(os.path.join(a, "tables")):
 blocks = re.findall(r"\*\*(.+?)\*\*\n\n((?:\|.*\|\n)+)", summary)
 if len(blocks) < 6:
     fail(f"summary.md holds only {len(blocks)} tables")
+def md_text(s):
+    # summary.md escapes text (markdown_escape: \ ` * _ [ ] | ~ with a backslash, < > & as entities): undo it.
+    return html.unescape(re.sub(r"\\([\\`*_\[\]|~])", r"\1", s))
+
+
 for title, body in blocks:
+    title = md_text(title)
     if title not in tables:
         fail(f"summary table {title!r} has no tables/*.json twin")
         continue
-    rows = [[c.strip() for c in line.strip().strip("|").split("|")] for line in body.strip().split("\n")[2:]]
+    rows = [[md_text(c.strip()) for c in re.split(r"(?<!\\)\|", line.strip()[1:-1])]
+            for line in body.strip().split("\n")[2:]]
     stem, jrows = tables[title]
     if len(rows) != len(jrows):
         fail(f"{stem}: {len(rows)} rows in summary.md, {len(jrows)} in JSON")

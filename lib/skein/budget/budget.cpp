@@ -9,6 +9,7 @@
 
 #include "skein/atmosphere/harris_priester.hpp"
 #include "skein/budget/impulses.hpp"
+#include "skein/budget/plausibility.hpp"
 #include "skein/budget/solar_inclination_drift.hpp"
 #include "skein/design/constellation.hpp"
 #include "skein/error.hpp"
@@ -20,6 +21,16 @@ namespace {
 
 DensityFn density_of(const OrbitAtmosphere& atm) {
   return [atm](double h, double t) { return orbit_density_kg_m3(atm, h, t); };
+}
+
+// A failed decay integration is never a lifetime nor a lower bound: refuse it.
+DecayResult require_decay(DecayResult r, std::string_view what) {
+  if (r.stop == DecayStop::failed)
+    throw InputError(fmt::format("the natural-decay integration of the {} failed (stopped at {:.6g} days, "
+                                 "semi-major axis {:.6g} km, after {} steps); expected a spacecraft and orbit the orbit-averaged "
+                                 "drag model can follow",
+                                 what, r.end.t_days, r.end.a_km, r.steps));
+  return r;
 }
 
 // Nodes (rad) of every plane of a shell.
@@ -53,7 +64,7 @@ Makeup drag_makeup(const EarthModel& earth, const OrbitAtmosphere& atm, double b
   double t = 0.0;
   while (t < life_days) {
     opt.horizon_days = life_days - t;
-    const DecayResult r = integrate_decay(earth, rho, b, {t, a0, e0}, opt);
+    const DecayResult r = require_decay(integrate_decay(earth, rho, b, {t, a0, e0}, opt), "drag make-up cycle");
     if (r.stop == DecayStop::reentry) {
       m.reentered = true;
       return m;
@@ -71,13 +82,14 @@ Makeup drag_makeup(const EarthModel& earth, const OrbitAtmosphere& atm, double b
       t += whole * cycle_days;
       if (t >= life_days) break;
       opt.horizon_days = life_days - t;
-      const DecayResult rest = integrate_decay(earth, rho, b, {t, a0, e0}, opt);
+      const DecayResult rest = require_decay(integrate_decay(earth, rho, b, {t, a0, e0}, opt), "drag make-up cycle");
       if (rest.stop == DecayStop::target) {  // rounding left one more whole cycle
         ++m.raises;
         m.dv_m_s += hohmann_dv_m_s(earth.mu_km3_s2, rest.end.a_km, a0);
         opt.horizon_days = std::max(life_days - rest.end.t_days, 0.0);
         if (opt.horizon_days > 0.0) {
-          const DecayResult tail = integrate_decay(earth, rho, b, {rest.end.t_days, a0, e0}, opt);
+          const DecayResult tail =
+              require_decay(integrate_decay(earth, rho, b, {rest.end.t_days, a0, e0}, opt), "drag make-up cycle");
           m.dv_m_s += hohmann_dv_m_s(earth.mu_km3_s2, tail.end.a_km, a0);
         }
       } else {
@@ -94,8 +106,34 @@ Makeup drag_makeup(const EarthModel& earth, const OrbitAtmosphere& atm, double b
   return m;
 }
 
-std::string fmt_years(double days) { return fmt::format("{:.2f} yr", days / days_per_julian_year); }
+// Every figure of a shell's budget must be finite: refuse the budget otherwise, naming the shell, the figure
+// and, where it is known, the cause.
+void require_finite_figures(const ShellBudget& s, const Spacecraft& sc) {
+  auto refuse = [&](std::string_view figure, double value, const std::string& cause) {
+    throw InputError(fmt::format("{} is not finite ({}): {}", figure, value, cause));
+  };
+  const std::string model = "the drag model overflowed; expected a ballistic coefficient and orbit it can follow";
+  for (const auto& d : s.decay)
+    if (!std::isfinite(d.lifetime_days)) refuse("the natural lifetime", d.lifetime_days, model);
+  if (!std::isfinite(s.drag_makeup_dv_m_s_per_year)) refuse("the drag make-up", s.drag_makeup_dv_m_s_per_year, model);
+  for (const auto& l : s.dv_lines)
+    if (!std::isfinite(l.dv_m_s)) refuse("delta-v line " + l.name, l.dv_m_s, model);
+  if (!std::isfinite(s.total_dv_m_s)) refuse("the total delta-v", s.total_dv_m_s, model);
+  if (!std::isfinite(s.fleet_dv_m_s)) refuse("the fleet delta-v", s.fleet_dv_m_s, model);
+  if (s.disposal_lifetime_days && !std::isfinite(*s.disposal_lifetime_days))
+    refuse("the lifetime after disposal", *s.disposal_lifetime_days, model);
+  if (s.propellant_kg && !std::isfinite(*s.propellant_kg))
+    refuse("the propellant mass", *s.propellant_kg,
+           fmt::format("the total delta-v {:.6g} m/s is {:.3g} times the exhaust speed g0 x isp_s = {:.6g} m/s, so the "
+                       "rocket equation's mass ratio exp(dv / (g0 isp_s)) overflows; expected a larger "
+                       "spacecraft.isp_s or a smaller budget",
+                       s.total_dv_m_s, s.total_dv_m_s / (standard_gravity_m_s2 * *sc.isp_s),
+                       standard_gravity_m_s2 * *sc.isp_s));
+  if (s.fleet_propellant_kg && !std::isfinite(*s.fleet_propellant_kg))
+    refuse("the fleet propellant mass", *s.fleet_propellant_kg, "the per-satellite mass times the satellite count overflows");
+}
 
+// One shell's budget. Its InputErrors do not name the file or the shell: compute_budget adds both.
 ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel level, double phase0,
                          const BudgetOptions& options) {
   const EarthModel& earth = design.earth;
@@ -121,8 +159,8 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
   const std::vector<double> nodes = plane_nodes_rad(shell);
 
   if (shell.a_km - spec.deadband_km - earth.radius_km <= reentry_km + 1.0)
-    throw InputError(fmt::format("{}: shell {}: budget.deadband_km {} reaches the re-entry altitude {} km; expected a "
-                                 "smaller deadband", design.file, shell.name, spec.deadband_km, reentry_km));
+    throw InputError(fmt::format("budget.deadband_km {} reaches the re-entry altitude {} km; expected a smaller deadband",
+                                 spec.deadband_km, reentry_km));
 
   // Density model for this shell.
   OrbitAtmosphere atm;
@@ -152,7 +190,8 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
     DecayOptions opt;
     opt.reentry_altitude_km = reentry_km;
     opt.horizon_days = horizon_days;
-    const DecayResult r = integrate_decay(earth, density_of(a), b, {0.0, shell.a_km, shell.e}, opt);
+    const DecayResult r =
+        require_decay(integrate_decay(earth, density_of(a), b, {0.0, shell.a_km, shell.e}, opt), "design orbit");
     LevelDecay d;
     d.level = l;
     d.lifetime_days = r.end.t_days;
@@ -173,10 +212,6 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
   if (out.lifetime_lower_bound)
     out.warnings.push_back(fmt::format("still in orbit after the {:.0f}-year horizon: the natural lifetime is a lower bound",
                                        options.lifetime_horizon_years));
-  if (!sc.isp_s && out.lifetime_natural_days < life_days)
-    out.warnings.push_back(fmt::format("natural lifetime {} is shorter than the {:.2f}-year mission life and the "
-                                       "spacecraft has no propulsion (spacecraft.isp_s absent): the shell cannot last "
-                                       "its life", fmt_years(out.lifetime_natural_days), spec.mission_life_years));
 
   const double v = circular_speed_m_s(earth.mu_km3_s2, shell.a_km);
   const double k = spec.sigma_multiple;
@@ -184,7 +219,7 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
   // (a) drag make-up
   const Makeup mk = drag_makeup(earth, atm, b, shell.a_km, shell.e, life_days, spec.deadband_km, reentry_km);
   if (mk.reentered)
-    out.warnings.push_back("the orbit re-enters within one deadband cycle: drag make-up is not possible at this altitude");
+    out.cannot_fly.push_back("the orbit re-enters within one deadband cycle: drag make-up is not possible at this altitude");
   out.drag_makeup_manoeuvres = mk.raises;
   out.drag_makeup_interval_days = mk.raises > 0 ? life_days / static_cast<double>(mk.raises) : 0.0;
   out.drag_makeup_dv_m_s_per_year = mk.dv_m_s / spec.mission_life_years;
@@ -254,8 +289,12 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
       if (rp < shell.a_km * (1.0 - shell.e)) {
         disposal_dv = perigee_lowering_dv_m_s(earth.mu_km3_s2, r_apo, shell.a_km, rp);
         out.disposal_perigee_km = spec.disposal_perigee_km;
+        out.disposal_burn = true;
       }
-      disposal_basis = fmt::format("direct re-entry: perigee to {} km", spec.disposal_perigee_km);
+      disposal_basis = out.disposal_burn
+                           ? fmt::format("direct re-entry: perigee to {} km", spec.disposal_perigee_km)
+                           : fmt::format("no burn needed: the perigee is already at or below {} km",
+                                         spec.disposal_perigee_km);
       break;
     }
     case DisposalMode::natural_decay: {
@@ -272,8 +311,12 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
         out.disposal_lifetime_days =
             natural_lifetime_days(earth, eol, b, shell.a_km, shell.e, life_days, reentry_km, rule_days);
       }
-      disposal_basis = fmt::format("lower the perigee to {:.1f} km to re-enter within {} yr ({} activity)",
-                                   out.disposal_perigee_km, spec.disposal_rule_years, to_string(level));
+      out.disposal_burn = hp.has_value();
+      disposal_basis =
+          hp ? fmt::format("lower the perigee to {:.1f} km to re-enter within {} yr ({} activity)",
+                           out.disposal_perigee_km, spec.disposal_rule_years, to_string(level))
+             : fmt::format("no burn needed: natural decay meets the {}-year rule ({} activity)", spec.disposal_rule_years,
+                           to_string(level));
       break;
     }
     case DisposalMode::none:
@@ -300,11 +343,26 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
                                          *out.propellant_kg, *sc.propellant_capacity_kg));
     }
   } else {
+    out.propellant_missing = "no isp_s";
     out.warnings.push_back("no specific impulse (spacecraft.isp_s): propellant mass is not computed");
   }
 
-  for ([[maybe_unused]] const auto& l : out.dv_lines) assert(std::isfinite(l.dv_m_s) && l.dv_m_s >= 0.0);
-  assert(std::isfinite(out.total_dv_m_s) && std::isfinite(out.lifetime_natural_days));
+  require_finite_figures(out, sc);
+
+  PlausibilityInput pin;
+  pin.mission_life_years = spec.mission_life_years;
+  pin.ballistic_coefficient_m2_kg = b;
+  pin.has_propulsion = sc.isp_s.has_value();
+  pin.dry_mass_kg = sc.dry_mass_kg;
+  pin.lifetime_natural_days = out.lifetime_natural_days;
+  pin.lifetime_lower_bound = out.lifetime_lower_bound;
+  pin.drag_makeup_raises = out.drag_makeup_manoeuvres;
+  pin.total_dv_m_s = out.total_dv_m_s;
+  pin.propellant_kg = out.propellant_kg;
+  const Plausibility judged = judge_plausibility(pin);
+  for (const auto& w : out.cannot_fly) out.warnings.push_back("cannot be flown: " + w);
+  out.cannot_fly.insert(out.cannot_fly.end(), judged.cannot_fly.begin(), judged.cannot_fly.end());
+  out.warnings.insert(out.warnings.end(), judged.warnings.begin(), judged.warnings.end());
   return out;
 }
 
@@ -316,7 +374,7 @@ double natural_lifetime_days(const EarthModel& earth, const OrbitAtmosphere& atm
   opt.reentry_altitude_km = reentry_km;
   opt.horizon_days = horizon_days;
   opt.record = false;
-  const DecayResult r = integrate_decay(earth, density_of(atm), b, {t0_days, a_km, e}, opt);
+  const DecayResult r = require_decay(integrate_decay(earth, density_of(atm), b, {t0_days, a_km, e}, opt), "orbit");
   if (lower_bound) *lower_bound = r.stop != DecayStop::reentry;
   return r.end.t_days - t0_days;
 }
@@ -370,7 +428,12 @@ BudgetResult compute_budget(const Design& design, const BudgetOptions& options) 
   out.reentry_altitude_km = spec.reentry_altitude_km;
   out.shells.resize(design.shells.size());
   tbb::parallel_for(size_t{0}, design.shells.size(), [&](size_t s) {
-    out.shells[s] = shell_budget(design, design.shells[s], out.solar, out.solar_cycle_phase_at_epoch, options);
+    // Every refusal of one shell's budget names the file and the shell.
+    try {
+      out.shells[s] = shell_budget(design, design.shells[s], out.solar, out.solar_cycle_phase_at_epoch, options);
+    } catch (const InputError& e) {
+      throw InputError(fmt::format("{}: shell {}: {}", design.file, design.shells[s].name, e.what()));
+    }
   });
   bool all_propellant = true;
   double fleet_prop = 0.0;

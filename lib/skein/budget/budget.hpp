@@ -69,13 +69,17 @@ struct ShellBudget {
   std::vector<DvLine> dv_lines;
   double total_dv_m_s = 0.0;            // per satellite, margin included
   double fleet_dv_m_s = 0.0;            // total_dv_m_s x satellites
-  std::optional<double> propellant_kg;  // per satellite; none without isp_s
+  std::optional<double> propellant_kg;  // per satellite; none without isp_s (then propellant_missing says so)
   std::optional<double> fleet_propellant_kg;
+  std::string propellant_missing;       // why propellant_kg is absent ("no isp_s"); empty when computed
   bool exceeds_tank = false;            // propellant_kg above spacecraft.propellant_capacity_kg
   // (f) disposal
   double disposal_perigee_km = 0.0;     // perigee altitude after the disposal burn
   std::optional<double> disposal_lifetime_days;  // natural lifetime after disposal (natural-decay mode)
+  bool disposal_burn = false;           // false: no burn needed (or none budgeted)
+  std::vector<std::string> cannot_fly;  // why this budget cannot be flown (plausibility.hpp); empty: flyable
   std::vector<std::string> warnings;
+  bool flyable() const { return cannot_fly.empty(); }
 };
 
 struct BudgetResult {
@@ -92,11 +96,14 @@ struct BudgetResult {
 };
 
 // Compute the budget. Throws InputError for a non-positive or non-finite ballistic coefficient, a mission
-// life out of (0, 100] years, or a deadband that reaches the re-entry altitude. Never returns NaN.
+// life out of (0, 100] years, a deadband that reaches the re-entry altitude, a decay integration that
+// fails, or any figure that is not finite (naming the shell, the figure and the cause). Never returns NaN
+// or infinity. Budgets that cannot be flown are returned, with ShellBudget::cannot_fly and warnings.
 BudgetResult compute_budget(const Design& design, const BudgetOptions& options = {});
 
 // Natural lifetime (days) of a mean orbit (a, e) for ballistic coefficient b_m2_kg under `atmosphere`,
-// starting t0_days after the epoch; `lower_bound` is set when it outlives horizon_days.
+// starting t0_days after the epoch; `lower_bound` is set when it outlives horizon_days. Throws InputError
+// when the decay integration fails (DecayStop::failed).
 double natural_lifetime_days(const EarthModel& earth, const OrbitAtmosphere& atmosphere, double b_m2_kg, double a_km,
                              double e, double t0_days, double reentry_altitude_km, double horizon_days,
                              bool* lower_bound = nullptr);

@@ -72,7 +72,7 @@ void read_grid(const MapReader& root, CoverageSpec& spec) {
         const std::string path = fmt::format("{}[{}]", g.path_of("sites"), k);
         const MapReader s(g.file(), items[k], path, {"name", "lat_deg", "lon_deg", "height_km"});
         Site site;
-        site.name = s.string("name", "a site name");
+        site.name = s.name("name", "a site name");
         site.lat_deg = s.number("lat_deg", -90.0, 90.0, "a geodetic latitude in degrees");
         site.lon_deg = s.number("lon_deg", -180.0, 360.0, "a longitude in degrees");
         site.height_km = s.optional_number("height_km", -0.5, 10.0, "a height above the ellipsoid in km").value_or(0.0);

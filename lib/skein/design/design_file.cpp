@@ -144,7 +144,7 @@ Shell read_shell(const std::string& file, const YAML::Node& node, const std::str
   for (auto k : {"satellites", "planes", "phasing", "raan_deg"}) all.push_back(k);
   const MapReader probe(file, node, path, all);
   Shell shell;
-  shell.name = probe.string("name", "a shell name");
+  shell.name = probe.name("name", "a shell name");
   for (char c : shell.name)
     if (!(std::isalnum(static_cast<unsigned char>(c)) || c == '-' || c == '_'))
       probe.fail_key("name", fmt::format("shell name {} has the character {}; expected letters, digits, - and _",
@@ -179,7 +179,7 @@ Design read_design(const YAML::Node& root_node, const std::string& file) {
   const MapReader root(file, root_node, "", {"name", "epoch", "earth", "spacecraft", "shells", "coverage", "budget"});
   Design d;
   d.file = file;
-  d.name = root.string("name", "a design name");
+  d.name = root.name("name", "a design name");
   const std::string epoch_text = root.string("epoch", "a UTC epoch");
   const auto epoch = parse_utc_iso8601(epoch_text);
   if (!epoch)

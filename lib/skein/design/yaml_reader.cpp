@@ -16,6 +16,50 @@
 namespace skein::yaml {
 namespace {
 
+// One UTF-8 character at text[i]: its code point and length, or length 0 when the bytes are not a
+// well-formed UTF-8 sequence (RFC 3629 section 4: no overlong forms, no surrogates D800-DFFF, nothing
+// above U+10FFFF, no stray continuation bytes).
+struct Utf8Char {
+  char32_t code = 0;
+  size_t length = 0;
+};
+Utf8Char decode_utf8(std::string_view text, size_t i) {
+  const auto b0 = static_cast<unsigned char>(text[i]);
+  if (b0 < 0x80) return {b0, 1};
+  size_t len = 0;
+  char32_t cp = 0, min = 0;
+  if ((b0 & 0xE0) == 0xC0) { len = 2; cp = b0 & 0x1F; min = 0x80; }
+  else if ((b0 & 0xF0) == 0xE0) { len = 3; cp = b0 & 0x0F; min = 0x800; }
+  else if ((b0 & 0xF8) == 0xF0) { len = 4; cp = b0 & 0x07; min = 0x10000; }
+  else return {};
+  if (i + len > text.size()) return {};
+  for (size_t k = 1; k < len; ++k) {
+    const auto b = static_cast<unsigned char>(text[i + k]);
+    if ((b & 0xC0) != 0x80) return {};
+    cp = (cp << 6) | (b & 0x3F);
+  }
+  if (cp < min || cp > 0x10FFFF || (cp >= 0xD800 && cp <= 0xDFFF)) return {};
+  return {cp, len};
+}
+
+// C0 controls, DEL and C1 controls (U+0000-001F, U+007F-009F).
+bool is_control(char32_t c) { return c < 0x20 || (c >= 0x7F && c <= 0x9F); }
+
+// A control character or a malformed UTF-8 sequence in a parsed text value (after YAML escapes such as
+// "\x1b" or "\uD800" are decoded): the offset and what it is, or nullopt when the text is clean.
+std::optional<std::string> bad_text(std::string_view text) {
+  for (size_t i = 0; i < text.size();) {
+    const Utf8Char u = decode_utf8(text, i);
+    if (u.length == 0)
+      return fmt::format("malformed UTF-8 (byte 0x{:02X}: an overlong form, a surrogate or beyond U+10FFFF)",
+                         static_cast<unsigned char>(text[i]));
+    if (is_control(u.code)) return fmt::format("the control character U+{:04X}", static_cast<unsigned>(u.code));
+    i += u.length;
+  }
+  return std::nullopt;
+}
+
+
 // Text from the input made safe and short for a message: control bytes and quotes escaped, cut to about
 // 40 characters at a UTF-8 character boundary ("..." marks the cut).
 std::string clip(std::string_view text) {
@@ -29,12 +73,18 @@ std::string clip(std::string_view text) {
     cut = true;
   }
   std::string out;
-  for (char ch : shown) {
-    const auto c = static_cast<unsigned char>(ch);
-    if (c < 0x20 || c == 0x7F)
-      out += fmt::format("\\x{:02X}", c);
+  for (size_t i = 0; i < shown.size();) {
+    const Utf8Char u = decode_utf8(shown, i);
+    if (u.length == 0) {
+      out += fmt::format("\\x{:02X}", static_cast<unsigned char>(shown[i]));
+      ++i;
+      continue;
+    }
+    if (is_control(u.code))
+      out += fmt::format("\\x{:02X}", static_cast<unsigned>(u.code));
     else
-      out += ch;
+      out.append(shown.substr(i, u.length));
+    i += u.length;
   }
   return cut ? out + "..." : out;
 }
@@ -104,7 +154,13 @@ class EventGuard final : public YAML::EventHandler {
   }
   void OnDocumentEnd() override {}
   void OnNull(const YAML::Mark& mark, YAML::anchor_t anchor) override { leaf(mark, anchor); }
-  void OnScalar(const YAML::Mark& mark, const std::string&, YAML::anchor_t anchor, const std::string&) override {
+  // Every text value and key, after YAML's escapes are decoded: no control character (a name is data and
+  // stays on one line) and well-formed UTF-8 ("\uD800" decodes to an encoded surrogate).
+  void OnScalar(const YAML::Mark& mark, const std::string&, YAML::anchor_t anchor, const std::string& value) override {
+    if (const auto bad = bad_text(value))
+      throw InputError(fmt::format("{}: the text {} holds {}; expected printable text on one line (names and strings "
+                                   "are data)",
+                                   location(file_, mark), quote_for_message(value), *bad));
     leaf(mark, anchor);
   }
   void OnAlias(const YAML::Mark& mark, YAML::anchor_t anchor) override {
@@ -218,24 +274,30 @@ std::optional<double> parse_plain_number(std::string_view text) {
 
 static void check_text(const std::string& text, const std::string& file) {
   // YAML is UTF-8 here; reject bytes that are not, with the line and column (in characters) they sit on.
+  // Control characters other than tab, line feed and carriage return (YAML's own white space) are refused
+  // too: a name or string is data and never carries them (escaped ones are caught on the parsed values).
   size_t line = 1, column = 1;
   for (size_t i = 0; i < text.size();) {
     const auto c = static_cast<unsigned char>(text[i]);
-    size_t len = c < 0x80 ? 1 : (c >> 5) == 0x6 ? 2 : (c >> 4) == 0xE ? 3 : (c >> 3) == 0x1E ? 4 : 0;
-    bool ok = len != 0 && i + len <= text.size();
-    for (size_t k = 1; ok && k < len; ++k) ok = (static_cast<unsigned char>(text[i + k]) >> 6) == 0x2;
-    if (!ok)
-      throw InputError(fmt::format("{}:{}:{}: the file is not UTF-8 text (byte 0x{:02X}); expected YAML saved as UTF-8",
+    const Utf8Char u = decode_utf8(text, i);
+    if (u.length == 0)
+      throw InputError(fmt::format("{}:{}:{}: the file is not UTF-8 text (byte 0x{:02X}: not a well-formed UTF-8 "
+                                   "sequence, such as an overlong form, a surrogate or a code point beyond "
+                                   "U+10FFFF); expected YAML saved as UTF-8",
                                    file, line, column, c));
     if (c == '\0')
       throw InputError(fmt::format("{}:{}:{}: the file holds a NUL byte; expected YAML text", file, line, column));
+    if (is_control(u.code) && u.code != '\t' && u.code != '\n' && u.code != '\r')
+      throw InputError(fmt::format("{}:{}:{}: the file holds the control character U+{:04X}; expected printable "
+                                   "text (names and strings are data)",
+                                   file, line, column, static_cast<unsigned>(u.code)));
     if (c == '\n') {
       ++line;
       column = 1;
     } else {
       ++column;
     }
-    i += len;
+    i += u.length;
   }
 }
 
@@ -385,6 +447,16 @@ std::string MapReader::string(std::string_view key, std::string_view what) const
   if (!n.IsScalar() || n.Scalar().empty())
     fail(n, path_of(key), fmt::format("expected {} (text), got {}", what, describe(n)));
   return n.Scalar();
+}
+
+std::string MapReader::name(std::string_view key, std::string_view what) const {
+  std::string s = string(key, what);
+  size_t chars = 0;
+  for (char ch : s) chars += (static_cast<unsigned char>(ch) & 0xC0) != 0x80;  // UTF-8 is checked on load
+  if (chars > max_name_chars)
+    fail(node(key), path_of(key), fmt::format("{} {} is {} characters long; expected at most {}", what,
+                                              quote_for_message(s), chars, max_name_chars));
+  return s;
 }
 
 std::optional<std::string> MapReader::optional_string(std::string_view key, std::string_view what) const {

@@ -35,6 +35,10 @@ std::string quote_for_message(std::string_view text);
 // times, so a few kB of YAML can stand for billions of nodes ("billion laughs").
 constexpr size_t max_expanded_nodes = 1'000'000;  // nodes counted with every alias expanded
 constexpr int max_nesting_depth = 64;             // maps and lists inside each other
+// Names are at most 64 characters: file names are built from them (tables/decay_SHELL_LEVEL.json,
+// exports/oem/SHELL-pNN-sNN.oem), and 64 characters (at most 256 bytes of UTF-8) keep every such name far
+// below the usual 255-byte file-name limit, so a report cannot fail late on a long name.
+constexpr size_t max_name_chars = 64;
 
 // The text of a file, read with the size guard first: at most max_file_bytes + 1 bytes are read, and a
 // larger file (or an endless one such as /dev/zero) is refused at once. Throws InputError for a directory,
@@ -70,6 +74,8 @@ class MapReader {
   long integer(std::string_view key, long min, long max, std::string_view what) const;
   std::optional<long> optional_integer(std::string_view key, long min, long max, std::string_view what) const;
   std::string string(std::string_view key, std::string_view what) const;
+  // A name (design, shell, site): text of at most max_name_chars characters.
+  std::string name(std::string_view key, std::string_view what) const;
   std::optional<std::string> optional_string(std::string_view key, std::string_view what) const;
   // One of the listed words.
   std::string choice(std::string_view key, const std::vector<std::string_view>& options) const;

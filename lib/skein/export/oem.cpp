@@ -1,6 +1,8 @@
 #include "skein/export/oem.hpp"
 
+#include <algorithm>
 #include <cmath>
+#include <string_view>
 #include <sstream>
 
 #include <fmt/format.h>
@@ -9,19 +11,36 @@
 
 namespace skein {
 
+namespace {
+// A KVN value or comment must stay on its line (CCSDS 502.0-B-2, KVN: one keyword = value per line): a line
+// break or any other control character (C0, DEL, C1) in it cannot be kept, so it is refused, never written.
+const std::string& one_line(const std::string& value, std::string_view keyword) {
+  for (size_t i = 0; i < value.size(); ++i) {
+    const auto c = static_cast<unsigned char>(value[i]);
+    const bool c1 = c == 0xC2 && i + 1 < value.size() && static_cast<unsigned char>(value[i + 1]) >= 0x80 &&
+                    static_cast<unsigned char>(value[i + 1]) <= 0x9F;
+    if (c < 0x20 || c == 0x7F || c1)
+      throw InputError(fmt::format("the OEM {} value \"{}...\" holds a control character (byte {} is 0x{:02X}) and "
+                                   "cannot be kept on one KVN line; expected printable text",
+                                   keyword, value.substr(0, std::min<size_t>(i, 20)), i, c));
+  }
+  return value;
+}
+}  // namespace
+
 std::string render_oem(const OemMessage& m) {
   std::string out = "CCSDS_OEM_VERS = 2.0\n";
-  for (const auto& c : m.comments) out += "COMMENT " + c + "\n";
-  out += "CREATION_DATE = " + m.creation_date + "\n";
-  out += "ORIGINATOR = " + m.originator + "\n";
+  for (const auto& c : m.comments) out += "COMMENT " + one_line(c, "COMMENT") + "\n";
+  out += "CREATION_DATE = " + one_line(m.creation_date, "CREATION_DATE") + "\n";
+  out += "ORIGINATOR = " + one_line(m.originator, "ORIGINATOR") + "\n";
   for (const auto& seg : m.segments) {
     out += "\nMETA_START\n";
-    for (const auto& c : seg.comments) out += "COMMENT " + c + "\n";
-    out += "OBJECT_NAME = " + seg.object_name + "\n";
-    out += "OBJECT_ID = " + seg.object_id + "\n";
-    out += "CENTER_NAME = " + seg.center_name + "\n";
-    out += "REF_FRAME = " + seg.ref_frame + "\n";
-    out += "TIME_SYSTEM = " + seg.time_system + "\n";
+    for (const auto& c : seg.comments) out += "COMMENT " + one_line(c, "COMMENT") + "\n";
+    out += "OBJECT_NAME = " + one_line(seg.object_name, "OBJECT_NAME") + "\n";
+    out += "OBJECT_ID = " + one_line(seg.object_id, "OBJECT_ID") + "\n";
+    out += "CENTER_NAME = " + one_line(seg.center_name, "CENTER_NAME") + "\n";
+    out += "REF_FRAME = " + one_line(seg.ref_frame, "REF_FRAME") + "\n";
+    out += "TIME_SYSTEM = " + one_line(seg.time_system, "TIME_SYSTEM") + "\n";
     out += "START_TIME = " + format_utc_iso8601(seg.samples.front().epoch, 3).substr(0, 23) + "\n";
     out += "STOP_TIME = " + format_utc_iso8601(seg.samples.back().epoch, 3).substr(0, 23) + "\n";
     out += "META_STOP\n\n";

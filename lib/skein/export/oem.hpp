@@ -34,6 +34,8 @@ struct OemMessage {
 };
 
 // KVN text of the message (OEM version 2.0).
+// Throws InputError when a value or comment holds a line break or other control character (kept on one line
+// or refused, never written across lines).
 std::string render_oem(const OemMessage& message);
 
 // Parse KVN text written by render_oem (and ordinary OEM 2.0 KVN files without covariance). Throws

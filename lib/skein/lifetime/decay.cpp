@@ -10,6 +10,7 @@ namespace {
 constexpr double circular_e = 1e-6;     // below this the orbit is treated as circular
 constexpr int quadrature_intervals = 24;  // trapezoid over E in [0, pi]; the integrands are even in E
 constexpr long max_steps = 2000000;
+constexpr double min_step_days = 1e-12;  // 86 ns: below this the state is not moving in double precision
 
 double perigee_altitude_km(const EarthModel& earth, const DecayPoint& s) {
   return s.a_km * (1.0 - s.e) - earth.radius_km;
@@ -70,27 +71,49 @@ DecayResult integrate_decay(const EarthModel& earth, const DensityFn& density, d
     return out;
   }
   while (true) {
-    if (s.t_days >= start.t_days + opt.horizon_days || out.steps >= max_steps) {
+    if (s.t_days >= start.t_days + opt.horizon_days) {
       out.stop = DecayStop::horizon;
+      break;
+    }
+    if (out.steps >= max_steps) {
+      out.stop = DecayStop::failed;
       break;
     }
     const DragRates k1 = rates(s.t_days, s.a_km, s.e);
     const double hp = perigee_altitude_km(earth, s);
     const double length_km = std::max(scale_height_km(density, hp, s.t_days), 0.5 * s.a_km * s.e);
     const double speed = std::abs(k1.da_km_per_day);
+    if (!std::isfinite(speed)) {
+      out.stop = DecayStop::failed;
+      break;
+    }
     double dt = speed > 0.0 ? opt.step_fraction * length_km / speed : opt.max_step_days;
     // With a target, take at least five steps to reach it so the crossing is interpolated inside a short step.
     if (opt.stop_below_a_km > 0.0 && speed > 0.0)
       dt = std::min(dt, 0.2 * std::max(start.a_km - opt.stop_below_a_km, 1e-3) / speed);
-    dt = std::clamp(dt, 1e-6, opt.max_step_days);
+    dt = std::min(dt, opt.max_step_days);
     dt = std::min(dt, start.t_days + opt.horizon_days - s.t_days);
-    const DragRates k2 = rates(s.t_days + dt / 2, s.a_km + dt / 2 * k1.da_km_per_day, s.e + dt / 2 * k1.de_per_day);
-    const DragRates k3 = rates(s.t_days + dt / 2, s.a_km + dt / 2 * k2.da_km_per_day, s.e + dt / 2 * k2.de_per_day);
-    const DragRates k4 = rates(s.t_days + dt, s.a_km + dt * k3.da_km_per_day, s.e + dt * k3.de_per_day);
+    // One RK4 step; halved while it leaves a non-finite state or a mean orbit below the Earth's surface
+    // (where the rates are meaningless): the step rule above keeps that rare, the halving keeps it safe.
     DecayPoint next;
-    next.t_days = s.t_days + dt;
-    next.a_km = s.a_km + dt / 6 * (k1.da_km_per_day + 2 * k2.da_km_per_day + 2 * k3.da_km_per_day + k4.da_km_per_day);
-    next.e = s.e + dt / 6 * (k1.de_per_day + 2 * k2.de_per_day + 2 * k3.de_per_day + k4.de_per_day);
+    bool sound = false;
+    while (true) {
+      const DragRates k2 = rates(s.t_days + dt / 2, s.a_km + dt / 2 * k1.da_km_per_day, s.e + dt / 2 * k1.de_per_day);
+      const DragRates k3 = rates(s.t_days + dt / 2, s.a_km + dt / 2 * k2.da_km_per_day, s.e + dt / 2 * k2.de_per_day);
+      const DragRates k4 = rates(s.t_days + dt, s.a_km + dt * k3.da_km_per_day, s.e + dt * k3.de_per_day);
+      next.t_days = s.t_days + dt;
+      next.a_km = s.a_km + dt / 6 * (k1.da_km_per_day + 2 * k2.da_km_per_day + 2 * k3.da_km_per_day + k4.da_km_per_day);
+      next.e = s.e + dt / 6 * (k1.de_per_day + 2 * k2.de_per_day + 2 * k3.de_per_day + k4.de_per_day);
+      sound = std::isfinite(next.a_km) && std::isfinite(next.e) && next.a_km > earth.radius_km && next.e < 1.0 &&
+              next.t_days > s.t_days;
+      if (sound) break;
+      dt *= 0.5;
+      if (!(dt > min_step_days)) break;
+    }
+    if (!sound) {
+      out.stop = DecayStop::failed;
+      break;
+    }
     if (next.e < circular_e) next.e = 0.0;
     ++out.steps;
     const DecayStop c = crossed(next);

@@ -39,7 +39,9 @@ struct DecayOptions {
   bool record = true;                   // keep the curve
 };
 
-enum class DecayStop { reentry, horizon, target };
+// failed: the integration could not follow the decay (a non-finite state, or max_steps without reaching a
+// stop); the result is then neither a lifetime nor a lower bound, and callers refuse it.
+enum class DecayStop { reentry, horizon, target, failed };
 
 struct DecayResult {
   DecayStop stop = DecayStop::horizon;
@@ -49,7 +51,12 @@ struct DecayResult {
 };
 
 // Integrate from `start` (t, a, e) with classical RK4 on (a, e), steps set by the perigee density scale
-// height (step_fraction), at least five per descent to stop_below_a_km, and capped by max_step_days.
+// height (step_fraction), at least five per descent to stop_below_a_km, and capped by max_step_days. There
+// is no lower bound on the step: an orbit that falls through the atmosphere in minutes (a ballistic
+// coefficient of 1e6 m^2/kg) takes steps of a fraction of a second and re-enters, never "outlives" the
+// horizon. A step that would leave a non-finite state, e >= 1 or a mean orbit below the Earth's surface is
+// halved; when halving goes below 1e-12 day, the rates are not finite, or 2,000,000 steps pass without a
+// stop, the result is `failed` (never a lifetime, never a lower bound).
 // Asserts b_m2_kg > 0 and finite state.
 DecayResult integrate_decay(const EarthModel& earth, const DensityFn& density, double b_m2_kg,
                             const DecayPoint& start, const DecayOptions& options);

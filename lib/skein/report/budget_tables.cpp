@@ -31,13 +31,14 @@ Table budget_shell_table(const BudgetResult& r) {
                {"propellant_kg", "propellant", "kg", 3},
                {"fleet_propellant_kg", "fleet propellant", "kg", 2},
                {"exceeds_tank", "over tank", "", 0},
-               {"disposal_perigee_km", "disposal perigee", "km", 1}};
+               {"disposal_perigee_km", "disposal perigee", "km", 1},
+               {"status", "status", "", 0}};
   for (const auto& s : r.shells)
     t.add_row({s.name, static_cast<long>(s.satellites), s.altitude_km, s.ballistic_coefficient_m2_kg,
                s.lifetime_natural_days, s.lifetime_natural_days / days_per_julian_year, yes_no(s.lifetime_lower_bound),
                s.drag_makeup_dv_m_s_per_year, s.drag_makeup_manoeuvres, s.sso_inclination_drift_deg_per_year,
                s.total_dv_m_s, s.fleet_dv_m_s, opt(s.propellant_kg), opt(s.fleet_propellant_kg), yes_no(s.exceeds_tank),
-               s.disposal_perigee_km});
+               s.disposal_perigee_km, std::string(s.flyable() ? "ok" : "cannot be flown")});
   return t;
 }
 
@@ -89,6 +90,7 @@ nlohmann::ordered_json budget_to_json(const BudgetResult& r, double re) {
   j["warnings"] = r.warnings;
   j["fleet_dv_m_s"] = r.fleet_dv_m_s;
   j["fleet_propellant_kg"] = opt_json(r.fleet_propellant_kg);
+  j["fleet_propellant_status"] = r.fleet_propellant_kg ? "computed" : "no isp_s";
   J shells = J::array();
   for (const auto& s : r.shells) {
     J o;
@@ -116,6 +118,9 @@ nlohmann::ordered_json budget_to_json(const BudgetResult& r, double re) {
     o["total_dv_m_s"] = s.total_dv_m_s;
     o["fleet_dv_m_s"] = s.fleet_dv_m_s;
     o["propellant_kg"] = opt_json(s.propellant_kg);
+    // Why propellant_kg is null: "computed" or "no isp_s". A non-finite propellant never reaches here
+    // (compute_budget refuses it), so null always means "not computed" and this says why.
+    o["propellant_status"] = s.propellant_missing.empty() ? std::string("computed") : s.propellant_missing;
     o["fleet_propellant_kg"] = opt_json(s.fleet_propellant_kg);
     o["exceeds_tank"] = s.exceeds_tank;
     o["disposal_perigee_km"] = s.disposal_perigee_km;
@@ -123,6 +128,8 @@ nlohmann::ordered_json budget_to_json(const BudgetResult& r, double re) {
     J curves = J::object();
     for (const auto& d : s.decay) curves[std::string(to_string(d.level))] = rows_to_json(decay_curve_table(s, d, re));
     o["decay_curves"] = curves;
+    o["flyable"] = s.flyable();
+    o["cannot_fly"] = s.cannot_fly;
     o["warnings"] = s.warnings;
     shells.push_back(o);
   }

@@ -60,11 +60,11 @@ std::string html_page(const Design& d, const std::vector<NamedTable>& tables, co
 }
 
 std::string summary_markdown(const Design& d, const std::vector<NamedTable>& tables, const std::vector<std::string>& warnings) {
-  std::string m = "# " + d.name + "\n\n";
-  m += fmt::format("Design file `{}`, epoch {}, Earth model {} ({}).\n\n", d.file, format_utc_iso8601(d.epoch, 0),
+  std::string m = "# " + markdown_escape(d.name) + "\n\n";
+  m += fmt::format("Design file {}, epoch {}, Earth model {} ({}).\n\n", markdown_escape(d.file), format_utc_iso8601(d.epoch, 0),
                    d.earth.name, d.earth.source);
   m += "> **Caution.** " + std::string(report_caution) + "\n\n";
-  for (const auto& w : warnings) m += "> **Warning.** " + w + "\n\n";
+  for (const auto& w : warnings) m += "> **Warning.** " + markdown_escape(w) + "\n\n";
   const char* sections[][2] = {{"shells", "Layout"},
                                {"drift", "J2 drift"},
                                {"differential_drift", ""},

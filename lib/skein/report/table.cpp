@@ -102,7 +102,10 @@ std::string render_csv(const Table& t) {
   for (size_t j = 0; j < t.columns.size(); ++j) out += (j ? "," : "") + csv_escape(t.columns[j].key);
   out += "\n";
   for (const auto& row : t.rows) {
-    for (size_t j = 0; j < row.size(); ++j) out += (j ? "," : "") + csv_escape(cell_text(row[j], t.columns[j], true));
+    for (size_t j = 0; j < row.size(); ++j) {
+      const std::string text = cell_text(row[j], t.columns[j], true);
+      out += (j ? "," : "") + csv_escape(std::holds_alternative<std::string>(row[j]) ? csv_neutralise(text) : text);
+    }
     out += "\n";
   }
   return out;
@@ -137,15 +140,39 @@ std::string html_escape(const std::string& s) {
       case '<': out += "&lt;"; break;
       case '>': out += "&gt;"; break;
       case '"': out += "&quot;"; break;
+      case '\'': out += "&#39;"; break;
       default: out += ch;
     }
   }
   return out;
 }
 
+std::string markdown_escape(const std::string& s) {
+  std::string out;
+  for (char ch : s) {
+    switch (ch) {
+      case '&': out += "&amp;"; break;
+      case '<': out += "&lt;"; break;
+      case '>': out += "&gt;"; break;
+      case '\\': case '`': case '*': case '_': case '[': case ']': case '|': case '~':
+        out += '\\';
+        out += ch;
+        break;
+      default: out += ch;
+    }
+  }
+  return out;
+}
+
+std::string csv_neutralise(const std::string& s) {
+  if (!s.empty() && (s[0] == '=' || s[0] == '+' || s[0] == '-' || s[0] == '@' || s[0] == '\t' || s[0] == '\r'))
+    return "'" + s;
+  return s;
+}
+
 std::string render_markdown(const Table& t) {
   std::string out;
-  if (!t.title.empty()) out += "**" + t.title + "**\n\n";
+  if (!t.title.empty()) out += "**" + markdown_escape(t.title) + "**\n\n";
   out += "|";
   for (const auto& c : t.columns) out += " " + heading_with_unit(c) + " |";
   out += "\n|";
@@ -154,9 +181,9 @@ std::string render_markdown(const Table& t) {
   for (const auto& row : t.rows) {
     out += "|";
     for (size_t j = 0; j < row.size(); ++j) {
-      std::string cell = cell_text(row[j], t.columns[j], false);
-      for (size_t p = cell.find('|'); p != std::string::npos; p = cell.find('|', p + 2)) cell.replace(p, 1, "\\|");
-      out += " " + cell + " |";
+      // Numbers are written as they are; text (names from input among them) is escaped.
+      const std::string cell = cell_text(row[j], t.columns[j], false);
+      out += " " + (std::holds_alternative<std::string>(row[j]) ? markdown_escape(cell) : cell) + " |";
     }
     out += "\n";
   }

@@ -44,6 +44,15 @@ std::string render_markdown(const Table& t);
 std::string render_html(const Table& t);
 // Escape text for HTML.
 std::string html_escape(const std::string& s);
+// Text for Markdown, placed after other text on its line (a table cell, a heading, a quoted warning): the
+// characters inline Markdown or HTML give a meaning (\ ` * _ [ ] | ~ with a backslash; < > & as entities)
+// are made literal, so a name such as "<script>" or "*x*" stays text in summary.md. Line-start markers
+// (# - + digits) need no escape there, and names never hold line breaks (the reader refuses them).
+std::string markdown_escape(const std::string& s);
+// A CSV text cell that starts with = + - @ (or a tab or carriage return) would run as a formula in a
+// spreadsheet: such cells get a leading single quote (the OWASP "CSV injection" advice). Numbers are not
+// text cells and keep their sign.
+std::string csv_neutralise(const std::string& s);
 // Render in the given format; JSON is {"title": ..., "rows": [...]}.
 std::string render(const Table& t, OutputFormat f);
 

@@ -59,6 +59,8 @@ LayoutMetrics evaluate_layout(const Sweep& sweep, const Layout& layout, const La
     m.propellant_per_satellite_kg = sb.propellant_kg;
     m.fleet_propellant_kg = bud.fleet_propellant_kg;
     m.exceeds_tank = std::any_of(bud.shells.begin(), bud.shells.end(), [](const ShellBudget& s) { return s.exceeds_tank; });
+    for (const ShellBudget& s : bud.shells)
+      for (const auto& why : s.cannot_fly) m.cannot_fly.push_back("shell " + s.name + ": " + why);
     m.evaluated = true;
   } catch (const InputError& e) {
     m.evaluated = false;
@@ -72,6 +74,7 @@ LayoutMetrics evaluate_layout(const Sweep& sweep, const Layout& layout, const La
                                      higher_is_better(t.figure) ? "<" : ">", t.value));
   }
   if (sweep.requirement.within_tank && m.exceeds_tank) m.failed.push_back("propellant exceeds the tank");
+  if (!m.cannot_fly.empty()) m.failed.push_back("the budget cannot be flown");  // never the answer of a sweep
   m.meets = m.failed.empty();
   return m;
 }

@@ -36,6 +36,7 @@ struct LayoutMetrics {
   std::optional<double> propellant_per_satellite_kg;  // varied shell; none without isp_s
   std::optional<double> fleet_propellant_kg;
   bool exceeds_tank = false;         // some shell's propellant exceeds the tank capacity
+  std::vector<std::string> cannot_fly;  // "shell NAME: why", for every shell whose budget cannot be flown
   // the requirement
   bool meets = false;
   std::vector<std::string> failed;   // the checks that failed, e.g. "percent_covered 84.20 < 90"

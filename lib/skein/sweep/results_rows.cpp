@@ -73,13 +73,17 @@ std::vector<Cell> layout_row([[maybe_unused]] const Sweep& sweep, const Layout& 
       l.ltan ? Cell(l.ltan->text) : Cell(),
       l.min_elevation_deg,
       static_cast<long>(m.design_satellites),
-      std::string(m.evaluated ? "ok" : "error"),
+      // ok, cannot-fly (evaluated, but some shell's budget cannot be flown: see note), or error
+      std::string(!m.evaluated ? "error" : m.cannot_fly.empty() ? "ok" : "cannot-fly"),
   };
   if (m.evaluated) {
     std::string failed;
     for (const auto& f : m.failed) failed += (failed.empty() ? "" : "; ") + f;
     std::string note;
     if (m.lifetime_lower_bound) note = "natural lifetime is a lower bound (outlives the horizon)";
+    std::string fly;
+    for (const auto& why : m.cannot_fly) fly += (fly.empty() ? "cannot be flown: " : "; ") + why;
+    if (!fly.empty()) note += (note.empty() ? "" : "; ") + fly;
     const Cell cap = m.cap_bound_satellites ? Cell(*m.cap_bound_satellites) : Cell();
     for (Cell c : {Cell(m.percent_covered), cap, Cell(m.worst_instant_percent), Cell(m.max_gap_s), Cell(m.mean_gap_s),
                    Cell(m.p95_gap_s), Cell(m.mean_response_time_s), Cell(m.mean_in_view), Cell(m.lifetime_days),
@@ -136,7 +140,7 @@ RowSummary summarize_row(const Sweep& sweep, const std::vector<Cell>& cells) {
   RowSummary s;
   s.layout = static_cast<size_t>(number_of(cells.at(column_of(sweep, "layout"))));
   const auto* status = std::get_if<std::string>(&cells.at(column_of(sweep, "status")));
-  s.evaluated = status && *status == "ok";
+  s.evaluated = status && (*status == "ok" || *status == "cannot-fly");
   if (!s.evaluated) return s;
   const auto* meets = std::get_if<std::string>(&cells.at(column_of(sweep, "meets_requirement")));
   s.meets = meets && *meets == "yes";
