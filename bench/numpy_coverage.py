@@ -151,9 +151,13 @@ def main():
     if len(shells) != 1 or shells[0].get("pattern") != "walker-delta":
         sys.exit("numpy_coverage.py: expected exactly one walker-delta shell")
     shell, cov = shells[0], design.get("coverage", {})
+    if "ltan" in shell or "eccentricity" in shell or not isinstance(shell["inclination_deg"], (int, float)):
+        sys.exit("numpy_coverage.py: expected a circular shell with a numeric inclination_deg and no ltan")
+    if design.get("earth", "wgs84") != "wgs84":
+        sys.exit("numpy_coverage.py: expected earth: wgs84 (the constants below)")
     grid_spec = cov.get("grid", {})
-    if grid_spec.get("kind", "global") != "global":
-        sys.exit("numpy_coverage.py: expected a global grid")
+    if grid_spec.get("kind", "global") != "global" or "nadir_half_angle_deg" in cov:
+        sys.exit("numpy_coverage.py: expected a global grid and no payload cone")
     spacing_deg = float(grid_spec.get("spacing_deg", 2.0))
     min_elevation_deg = float(cov.get("min_elevation_deg", 10.0))
     span_s = 3600.0 * float(cov.get("span_h", 24.0))
