@@ -5,7 +5,7 @@
 #include <string>
 
 #include "skein/budget/budget.hpp"
-#include "skein/design/design_file.hpp"
+#include "skein/input/design_file.hpp"
 
 namespace {
 

@@ -13,7 +13,7 @@
 #include <ctime>
 
 #include "skein/coverage/evaluate.hpp"
-#include "skein/design/design_file.hpp"
+#include "skein/input/design_file.hpp"
 
 namespace {
 

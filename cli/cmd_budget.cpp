@@ -3,7 +3,7 @@
 
 #include "commands.hpp"
 #include "skein/budget/budget.hpp"
-#include "skein/design/design_file.hpp"
+#include "skein/input/design_file.hpp"
 #include "skein/report/budget_tables.hpp"
 
 namespace skein::cli {

@@ -5,7 +5,7 @@
 
 #include "commands.hpp"
 #include "skein/design/constellation.hpp"
-#include "skein/design/design_file.hpp"
+#include "skein/input/design_file.hpp"
 #include "skein/report/layout_tables.hpp"
 
 namespace skein::cli {

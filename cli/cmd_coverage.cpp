@@ -12,7 +12,7 @@
 
 #include "commands.hpp"
 #include "skein/coverage/evaluate.hpp"
-#include "skein/design/design_file.hpp"
+#include "skein/input/design_file.hpp"
 #include "skein/error.hpp"
 #include "skein/io/atomic_write.hpp"
 #include "skein/io/output_file.hpp"

@@ -3,7 +3,7 @@
 #include <regex>
 
 #include "commands.hpp"
-#include "skein/design/design_file.hpp"
+#include "skein/input/design_file.hpp"
 #include "skein/error.hpp"
 #include "skein/report/layout_tables.hpp"
 

@@ -8,7 +8,7 @@
 #include <fmt/format.h>
 
 #include "commands.hpp"
-#include "skein/design/design_file.hpp"
+#include "skein/input/design_file.hpp"
 #include "skein/error.hpp"
 #include "skein/io/folder_write.hpp"
 #include "skein/report/report.hpp"

@@ -12,7 +12,7 @@
 #include <string>
 
 #include "skein/design/constellation.hpp"
-#include "skein/design/design_file.hpp"
+#include "skein/input/design_file.hpp"
 #include "skein/error.hpp"
 #include "skein/drift/drift_summary.hpp"
 

@@ -7,7 +7,7 @@
 #include "skein/atmosphere/exponential_table.hpp"
 #include "skein/budget/budget.hpp"
 #include "skein/budget/impulses.hpp"
-#include "skein/design/design_file.hpp"
+#include "skein/input/design_file.hpp"
 #include "skein/error.hpp"
 #include "skein/report/budget_tables.hpp"
 

@@ -10,7 +10,7 @@
 #include "skein/atmosphere/atmosphere.hpp"
 #include "skein/budget/budget.hpp"
 #include "skein/budget/plausibility.hpp"
-#include "skein/design/design_file.hpp"
+#include "skein/input/design_file.hpp"
 #include "skein/error.hpp"
 #include "skein/lifetime/decay.hpp"
 #include "skein/report/budget_tables.hpp"

@@ -9,7 +9,7 @@
 
 #include "skein/constants.hpp"
 #include "skein/coverage/cap_bound.hpp"
-#include "skein/design/design_file.hpp"
+#include "skein/input/design_file.hpp"
 
 using namespace skein;
 

@@ -4,7 +4,7 @@
 
 #include <fmt/format.h>
 
-#include "skein/design/design_file.hpp"
+#include "skein/input/design_file.hpp"
 
 namespace skein::test {
 

@@ -6,7 +6,7 @@
 
 #include "skein/constants.hpp"
 #include "skein/design/constellation.hpp"
-#include "skein/design/design_file.hpp"
+#include "skein/input/design_file.hpp"
 #include "skein/error.hpp"
 #include "skein/time/sun.hpp"
 

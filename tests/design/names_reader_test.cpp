@@ -4,7 +4,7 @@
 
 #include <string>
 
-#include "skein/design/yaml_reader.hpp"
+#include "skein/input/yaml_reader.hpp"
 #include "skein/error.hpp"
 #include "skein/sweep/sweep_spec.hpp"
 

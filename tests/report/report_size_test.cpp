@@ -8,7 +8,7 @@
 
 #include <string>
 
-#include "skein/design/design_file.hpp"
+#include "skein/input/design_file.hpp"
 #include "skein/error.hpp"
 #include "skein/report/report.hpp"
 

@@ -13,7 +13,7 @@
 
 #include "skein/budget/budget.hpp"
 #include "skein/coverage/evaluate.hpp"
-#include "skein/design/design_file.hpp"
+#include "skein/input/design_file.hpp"
 #include "skein/sweep/evaluate_layout.hpp"
 #include "skein/sweep/results_rows.hpp"
 #include "skein/sweep/sweep_run.hpp"

@@ -8,7 +8,7 @@
 // the equatorial radius; the cap area 2 pi R^2 (1 - cos lambda) is elementary spherical geometry.
 #include <optional>
 
-#include "skein/coverage/spec.hpp"
+#include "skein/design/coverage_spec.hpp"
 #include "skein/design/design.hpp"
 
 namespace skein {

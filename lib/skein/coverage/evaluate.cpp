@@ -22,7 +22,7 @@
 #include "skein/coverage/footprint.hpp"
 #include "skein/coverage/ground_geometry.hpp"
 #include "skein/coverage/grid.hpp"
-#include "skein/coverage/spec.hpp"
+#include "skein/design/coverage_spec.hpp"
 #include "skein/design/constellation.hpp"
 #include "skein/error.hpp"
 #include "skein/orbit/propagate.hpp"

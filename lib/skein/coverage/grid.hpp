@@ -8,7 +8,7 @@
 #include <Eigen/Core>
 
 #include "skein/constants.hpp"
-#include "skein/coverage/spec.hpp"
+#include "skein/design/coverage_spec.hpp"
 
 namespace skein {
 

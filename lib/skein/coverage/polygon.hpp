@@ -6,7 +6,7 @@
 #include <string>
 #include <vector>
 
-#include "skein/coverage/spec.hpp"
+#include "skein/design/coverage_spec.hpp"
 
 namespace skein {
 

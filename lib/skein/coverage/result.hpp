@@ -7,7 +7,7 @@
 #include <vector>
 
 #include "skein/coverage/grid.hpp"
-#include "skein/coverage/spec.hpp"
+#include "skein/design/coverage_spec.hpp"
 
 namespace skein {
 

@@ -5,9 +5,9 @@
 #include <string_view>
 #include <vector>
 
-#include "skein/budget/spec.hpp"
+#include "skein/design/budget_spec.hpp"
 #include "skein/constants.hpp"
-#include "skein/coverage/spec.hpp"
+#include "skein/design/coverage_spec.hpp"
 #include "skein/time/epoch.hpp"
 
 namespace skein {

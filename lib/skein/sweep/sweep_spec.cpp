@@ -9,8 +9,9 @@
 
 #include <fmt/format.h>
 
-#include "skein/design/design_file.hpp"
-#include "skein/design/yaml_reader.hpp"
+#include "skein/input/design_file.hpp"
+#include "skein/input/coverage_block.hpp"
+#include "skein/input/yaml_reader.hpp"
 #include "skein/sweep/checksum.hpp"
 
 namespace skein {

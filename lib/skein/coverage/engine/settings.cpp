@@ -6,7 +6,7 @@
 #include <fmt/format.h>
 
 #include "skein/coverage/grid.hpp"
-#include "skein/coverage/spec.hpp"
+#include "skein/design/coverage_spec.hpp"
 #include "skein/design/constellation.hpp"
 #include "skein/error.hpp"
 
@@ -144,8 +144,9 @@ CoverageSettings resolve_coverage_settings(const Design& design, const CoverageO
     st.max_fold = *o.max_fold;
   } else if (s.max_fold) {
     if (*s.max_fold > st.satellites)
-      throw InputError(fmt::format("{}: fold {} is larger than the design's {} satellites; expected at most {}",
-                                   s.max_fold_location, *s.max_fold, st.satellites, st.satellites));
+      throw InputError(fmt::format("coverage.max_fold: fold {} is larger than the design's {} satellites; expected "
+                                   "at most {} (the design reader checks this at its position; here a layout changed T)",
+                                   *s.max_fold, st.satellites, st.satellites));
     st.max_fold = *s.max_fold;
   } else {
     st.max_fold = std::min(3, st.satellites);

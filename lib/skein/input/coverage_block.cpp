@@ -1,11 +1,11 @@
-#include "skein/coverage/spec.hpp"
+#include "skein/input/coverage_block.hpp"
 
 #include <cmath>
 
 #include <fmt/format.h>
 
 #include "skein/coverage/polygon.hpp"
-#include "skein/design/yaml_reader.hpp"
+#include "skein/input/yaml_reader.hpp"
 
 namespace skein {
 namespace {
@@ -87,22 +87,6 @@ void read_grid(const MapReader& root, CoverageSpec& spec) {
 
 }  // namespace
 
-std::string_view to_string(GridKind kind) {
-  switch (kind) {
-    case GridKind::global: return "global";
-    case GridKind::band: return "band";
-    case GridKind::region: return "region";
-    case GridKind::sites: return "sites";
-  }
-  return "global";
-}
-
-std::optional<GridKind> grid_kind_from_string(std::string_view text) {
-  for (GridKind k : {GridKind::global, GridKind::band, GridKind::region, GridKind::sites})
-    if (to_string(k) == text) return k;
-  return std::nullopt;
-}
-
 CoverageSpec read_coverage_spec(const yaml::MapReader& root) {
   CoverageSpec spec;
   if (!root.has("coverage")) return spec;
@@ -127,7 +111,6 @@ CoverageSpec read_coverage_spec(const yaml::MapReader& root) {
   if (block.has("max_fold")) {
     spec.max_fold = static_cast<int>(block.integer("max_fold", 1, max_fold_limit,
                                                         fmt::format("a coverage fold K from 1 to {}", max_fold_limit)));
-    spec.max_fold_location = yaml::location(block.file(), block.node("max_fold").Mark()) + ": " + block.path_of("max_fold");
   }
   if (block.has("latitude_band_deg")) {
     spec.band_width_deg = block.number("latitude_band_deg", 0.5, 180.0, "a latitude band width in degrees");

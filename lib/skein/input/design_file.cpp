@@ -1,11 +1,13 @@
-#include "skein/design/design_file.hpp"
+#include "skein/input/design_file.hpp"
 
 #include <cmath>
 #include <set>
 
 #include <fmt/format.h>
 
-#include "skein/design/yaml_reader.hpp"
+#include "skein/input/budget_block.hpp"
+#include "skein/input/coverage_block.hpp"
+#include "skein/input/yaml_reader.hpp"
 #include "skein/orbit/sun_synchronous.hpp"
 #include "skein/time/sun.hpp"
 
@@ -211,6 +213,11 @@ Design read_design(const YAML::Node& root_node, const std::string& file) {
     d.shells.push_back(std::move(shell));
   }
   d.coverage = read_coverage_spec(root);
+  // The fold against the satellite count, here where both positions are known (the domain type keeps none).
+  if (d.coverage.max_fold && *d.coverage.max_fold > total)
+    yaml::fail_at(file, root.node("coverage")["max_fold"], "coverage.max_fold",
+                  fmt::format("fold {} is larger than the design's {} satellites; expected at most {}",
+                              *d.coverage.max_fold, total, total));
   d.budget = read_budget_spec(root);
   return d;
 }

@@ -1,4 +1,4 @@
-#include "skein/design/yaml_reader.hpp"
+#include "skein/input/yaml_reader.hpp"
 
 #include <algorithm>
 #include <cmath>

@@ -8,7 +8,6 @@
 #include "skein/atmosphere/solar_activity.hpp"
 
 namespace skein {
-namespace yaml { class MapReader; }
 
 // End-of-life disposal.
 enum class DisposalMode {
@@ -57,7 +56,5 @@ struct BudgetSpec {
   double margin_percent = 10.0;                  // margin_percent
 };
 
-// Read the optional `budget` block of the design's top-level map; defaults when absent.
-BudgetSpec read_budget_spec(const yaml::MapReader& design_root);
 
 }  // namespace skein

@@ -7,7 +7,6 @@
 #include <vector>
 
 namespace skein {
-namespace yaml { class MapReader; }
 
 // The kind of ground grid.
 enum class GridKind {
@@ -47,13 +46,8 @@ struct CoverageSpec {
   double span_s = 86400.0;              // span_h (default 24 h) from the design epoch
   double step_s = 60.0;                 // step_s, default 60 s
   std::optional<int> max_fold;          // max_fold K; default min(3, satellites)
-  std::string max_fold_location;        // "file:line:col: coverage.max_fold", for the later check against T
   double band_width_deg = 10.0;         // latitude_band_deg: width of the reporting latitude bands
 };
 
-// Read the optional `coverage` block of the design's top-level map; defaults when absent.
-// Keys: grid {kind, spacing_deg, lat_min_deg, lat_max_deg, vertices, sites}, min_elevation_deg,
-// nadir_half_angle_deg, span_h, step_s, max_fold, latitude_band_deg.
-CoverageSpec read_coverage_spec(const yaml::MapReader& design_root);
 
 }  // namespace skein
