@@ -27,7 +27,7 @@ void add_budget_command(CLI::App& app) {
     BudgetOptions options;
     options.solar = solar_of(opt->solar);
     const BudgetResult result = compute_budget(design, options);
-    print_stderr("caution: " + std::string(budget_caution) + "\n");
+    print_caution();
     for (const auto& w : result.warnings) print_stderr("warning: " + w + "\n");
     const OutputFormat f = format_of(opt->format);
     if (f == OutputFormat::json) {

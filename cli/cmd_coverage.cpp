@@ -21,10 +21,6 @@
 namespace skein::cli {
 namespace {
 
-constexpr const char* caution =
-    "caution: these are preliminary design estimates; operations, collision avoidance and licensing follow the "
-    "applicable national rules, international debris-mitigation standards and licensed flight-dynamics practice.\n";
-
 // Redraws "coverage: NN %" on stderr every half second while the evaluation runs (only on a terminal).
 class ProgressLine {
  public:
@@ -156,7 +152,7 @@ void add_coverage_command(CLI::App& app) {
                                result.hidden_passes, result.path_error_bound_m) +
                    render_text(folds) + "\n" + render_text(bands) + "\n" + render_text(in_view_distribution_table(result)));
     }
-    print_stderr(caution);
+    print_caution();
   });
 }
 

@@ -91,7 +91,7 @@ void add_report_command(CLI::App& app) {
                              "  tables:   {}/tables/   plots: {}/plots/   exports: {}/exports/\n",
                              design.name, out, report.files_written, out, out, out, out, out));
     for (const auto& w : report.budget.warnings) print_stderr("skein: warning: " + w + "\n");
-    print_stderr(std::string("Caution: ") + std::string(report_caution) + "\n");
+    print_caution();
   });
 }
 

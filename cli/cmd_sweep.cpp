@@ -33,10 +33,6 @@
 namespace skein::cli {
 namespace {
 
-constexpr const char* caution =
-    "caution: these are preliminary design estimates; operations, collision avoidance and licensing follow the "
-    "applicable national rules, international debris-mitigation standards and licensed flight-dynamics practice.\n";
-
 std::string fmt_duration(double s) {
   if (!(s >= 0.0) || s > 1e8) return "--:--";
   const long t = static_cast<long>(s + 0.5);
@@ -200,7 +196,7 @@ void write_outputs(const Options& opt, const std::string& dir, const Sweep& swee
   note += fmt::format("written: {}/results.csv, results.jsonl, best_front.csv, trade_front.csv{}\n", dir,
                       out.fronts_svg.empty() ? "" : ", fronts.svg");
   print_stderr(note);
-  print_stderr(caution);
+  print_caution();
   // Standard output: the best front (meets requirement), cheapest first.
   const OutputFormat f = format_of(opt.format);
   if (f == OutputFormat::json)

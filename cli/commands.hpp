@@ -32,6 +32,9 @@ std::optional<SolarLevel> solar_of(const std::string& solar);
 void print_stdout(const std::string& text);
 // Writes a note to standard error (warnings, progress, cautions).
 void print_stderr(const std::string& text);
+// Writes the usual caution (skein::caution_text) to standard error; every command that computes figures ends
+// with it.
+void print_caution();
 
 void add_check_command(CLI::App& app);
 void add_drift_command(CLI::App& app);

@@ -8,6 +8,8 @@
 
 #include "commands.hpp"
 #include "skein/error.hpp"
+#include "skein/caution.hpp"
+#include "skein/version.hpp"
 
 namespace skein::cli {
 
@@ -53,6 +55,8 @@ void print_stderr(const std::string& text) {
   std::fwrite(text.data(), 1, text.size(), stderr);
   std::fflush(stderr);
 }
+
+void print_caution() { print_stderr("caution: " + std::string(caution_text) + "\n"); }
 
 }  // namespace skein::cli
 

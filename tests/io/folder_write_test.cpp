@@ -17,6 +17,7 @@
 #include "skein/error.hpp"
 #include "skein/io/folder_write.hpp"
 #include "skein/io/output_file.hpp"
+#include "skein/version.hpp"
 
 namespace fs = std::filesystem;
 using namespace skein;

@@ -11,13 +11,10 @@
 #include "skein/design/design.hpp"
 #include "skein/lifetime/decay.hpp"
 
+#include "skein/caution.hpp"
+
 namespace skein {
 
-// Printed with every budget (CLI stderr, report, JSON "caution").
-inline constexpr std::string_view budget_caution =
-    "these are preliminary design estimates; operational manoeuvre planning, collision avoidance and licensing "
-    "follow the applicable national rules, international debris-mitigation standards and licensed "
-    "flight-dynamics practice.";
 
 struct BudgetOptions {
   std::optional<SolarLevel> solar;        // overrides the design's budget.solar_activity (CLI --solar)

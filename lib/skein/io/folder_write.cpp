@@ -20,6 +20,7 @@
 
 #include "skein/error.hpp"
 #include "skein/io/atomic_write.hpp"
+#include "skein/version.hpp"
 
 namespace skein {
 namespace fs = std::filesystem;

@@ -86,7 +86,7 @@ nlohmann::ordered_json budget_to_json(const BudgetResult& r, double re) {
   j["solar_activity"] = std::string(to_string(r.solar));
   j["solar_cycle_phase_at_epoch"] = r.solar_cycle_phase_at_epoch;
   j["reentry_altitude_km"] = r.reentry_altitude_km;
-  j["caution"] = std::string(budget_caution);
+  j["caution"] = std::string(caution_text);
   j["warnings"] = r.warnings;
   j["fleet_dv_m_s"] = r.fleet_dv_m_s;
   j["fleet_propellant_kg"] = opt_json(r.fleet_propellant_kg);

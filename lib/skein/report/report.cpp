@@ -41,7 +41,7 @@ std::string html_page(const Design& d, const std::vector<NamedTable>& tables, co
   h += "<h1>" + html_escape(d.name) + "</h1>\n";
   h += fmt::format("<p>Design file {}, epoch {}, Earth model {}.</p>\n", html_escape(d.file),
                    format_utc_iso8601(d.epoch, 0), d.earth.name);
-  h += "<p class=\"caution\">" + html_escape(std::string(report_caution)) + "</p>\n";
+  h += "<p class=\"caution\">" + html_escape(std::string(caution_text)) + "</p>\n";
   for (const auto& w : warnings) h += "<p class=\"caution\">Warning: " + html_escape(w) + "</p>\n";
   h += "<h2>Tables</h2>\n";
   for (const auto& t : tables) {
@@ -63,7 +63,7 @@ std::string summary_markdown(const Design& d, const std::vector<NamedTable>& tab
   std::string m = "# " + markdown_escape(d.name) + "\n\n";
   m += fmt::format("Design file {}, epoch {}, Earth model {} ({}).\n\n", markdown_escape(d.file), format_utc_iso8601(d.epoch, 0),
                    d.earth.name, d.earth.source);
-  m += "> **Caution.** " + std::string(report_caution) + "\n\n";
+  m += "> **Caution.** " + std::string(caution_text) + "\n\n";
   for (const auto& w : warnings) m += "> **Warning.** " + markdown_escape(w) + "\n\n";
   const char* sections[][2] = {{"shells", "Layout"},
                                {"drift", "J2 drift"},
@@ -218,7 +218,7 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
     OemMessage m;
     m.creation_date = options.creation_date;
     m.originator = options.originator;
-    m.comments = {"Design: " + design.name, std::string(report_caution)};
+    m.comments = {"Design: " + design.name, std::string(caution_text)};
     m.segments.push_back(sample_oem_segment(design.earth, make_secular_orbit(design.earth, sat.elements), design.epoch,
                                             options.ephemeris_span_s, options.ephemeris_step_s, sat.id, sat.id));
     sink("exports/oem/" + sat.id + ".oem", render_oem(m));  // one at a time: never all in memory

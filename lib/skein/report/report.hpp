@@ -12,12 +12,10 @@
 #include "skein/design/design.hpp"
 #include "skein/io/folder_write.hpp"
 
+#include "skein/caution.hpp"
+
 namespace skein {
 
-// The usual caution printed with every report.
-inline constexpr std::string_view report_caution =
-    "These are preliminary design estimates; operations, collision avoidance and licensing follow the applicable "
-    "national rules, international debris-mitigation standards and licensed flight-dynamics practice.";
 
 struct ReportOptions {
   CoverageOptions coverage;              // as for `skein coverage` (defaults: the design's coverage block)

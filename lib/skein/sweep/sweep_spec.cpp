@@ -13,6 +13,7 @@
 #include "skein/input/coverage_block.hpp"
 #include "skein/input/yaml_reader.hpp"
 #include "skein/sweep/checksum.hpp"
+#include "skein/version.hpp"
 
 namespace skein {
 namespace {
