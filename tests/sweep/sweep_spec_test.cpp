@@ -46,34 +46,34 @@ TEST_CASE("sweep: the small example sweep expands to the hand-counted layouts an
   CHECK(combination_count(s) == doctest::Approx(108.0));  // whole numbers: exact
   // Nesting order T, P, F, altitude, inclination (LTANs inside SSO), elevation.
   const Layout& first = set.layouts[0];
-  CHECK(first.satellites == 12);
-  CHECK(first.planes == 3);
-  CHECK(first.phasing == 0);
-  CHECK(first.altitude_km == 520.0);
-  CHECK(first.sun_synchronous);
-  CHECK(first.ltan->text == "10:30");
-  CHECK(set.layouts[1].ltan->text == "13:30");
-  CHECK_FALSE(set.layouts[2].sun_synchronous);
-  CHECK(set.layouts[2].inclination_deg == 70.0);
-  CHECK(set.layouts[3].altitude_km == 580.0);
+  CHECK(first.shells[0].satellites == 12);
+  CHECK(first.shells[0].planes == 3);
+  CHECK(first.shells[0].phasing == 0);
+  CHECK(first.shells[0].altitude_km == 520.0);
+  CHECK(first.shells[0].sun_synchronous);
+  CHECK(first.shells[0].ltan->text == "10:30");
+  CHECK(set.layouts[1].shells[0].ltan->text == "13:30");
+  CHECK_FALSE(set.layouts[2].shells[0].sun_synchronous);
+  CHECK(set.layouts[2].shells[0].inclination_deg == 70.0);
+  CHECK(set.layouts[3].shells[0].altitude_km == 580.0);
   const Layout& last = set.layouts.back();
   CHECK(last.index == 71);
-  CHECK(last.satellites == 24);
-  CHECK(last.planes == 4);
-  CHECK(last.phasing == 3);
+  CHECK(last.shells[0].satellites == 24);
+  CHECK(last.shells[0].planes == 4);
+  CHECK(last.shells[0].phasing == 3);
   // Sun-synchronous inclination at 520 km circular: about 97.4 deg (Wertz & Larson, "Space Mission Analysis and
   // Design", 3rd ed., fig. 6-10 / table of SSO inclinations: 97.4 deg near 500 km, 97.8 deg near 600 km); 0.1 deg
   // covers reading the published figure.
-  CHECK(first.inclination_deg == doctest::Approx(97.45).epsilon(0.1 / 97.45));
+  CHECK(first.shells[0].inclination_deg == doctest::Approx(97.45).epsilon(0.1 / 97.45));
 }
 
 TEST_CASE("sweep: ranges include both ends, phasing all expands 0..P-1") {
   const Sweep s = read_sweep_text(sweep_text("  satellites: {from: 12, to: 24, step: 6}\n  planes: [2, 3]\n  phasing: all\n"
                                              "  altitude_km: {from: 500, to: 600, step: 25}\n"),
                                   "s.yaml", folder);
-  CHECK(s.axes.satellites == std::vector<int>{12, 18, 24});
-  REQUIRE(s.axes.altitude_km.size() == 5);
-  CHECK(s.axes.altitude_km.back() == 600.0);
+  CHECK(s.axes.shells[0].satellites == std::vector<int>{12, 18, 24});
+  REQUIRE(s.axes.shells[0].altitude_km.size() == 5);
+  CHECK(s.axes.shells[0].altitude_km.back() == 600.0);
   const LayoutSet set = expand_layouts(s);
   // (2 + 3) F values for each of the 3 T (all divisible by 2 and 3) x 5 altitudes, base SSO at its 10:30 LTAN.
   CHECK(set.layouts.size() == 75);
