@@ -158,6 +158,10 @@ TEST_CASE("sweep: a damaged journal header says what it found and --salvage keep
   // The header removed altogether: the first line is a row, and is kept.
   j = parse_journal(body, header, salvage, "j");
   CHECK(j.rows.size() == 2);
+  // The header alone without its LF is this sweep's header, holding no row.
+  j = parse_journal(header.substr(0, header.size() - 1), header, checked_options(), "j");
+  CHECK(j.rows.empty());
+  CHECK(j.compact == header);
   // An empty file is a damaged header holding no row.
   CHECK(message_of("", header, checked_options()).find("found an empty file") != std::string::npos);
   // A well-formed header of another sweep is not damage: --salvage does not take its rows.

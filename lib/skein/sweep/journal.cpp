@@ -111,7 +111,7 @@ JournalContents parse_journal(std::string_view text, std::string_view expected_h
   const std::vector<Line> lines = split_lines(text);
   const std::string_view want = expected_header.substr(0, expected_header.size() - 1);  // without its LF
   size_t first = 0;
-  if (!lines.empty() && lines[0].complete && lines[0].text == want) {
+  if (!lines.empty() && lines[0].text == want) {  // (a header without its LF is whole: the LF is written back)
     first = 1;
     out.crlf = lines[0].crlf;
   } else if (!lines.empty() && is_header_form(lines[0].text)) {
