@@ -190,7 +190,7 @@ void write_outputs(const Options& opt, const std::string& dir, const Sweep& swee
   std::string note = fmt::format(
       "sweep {}: {} layouts ({} resumed from the journal{}), {} evaluated, {} refused by an evaluator, {} meet the "
       "requirement; {} on the {}, {} on the {}\n",
-      sweep.name, s.layouts, resumed, damaged ? fmt::format(", {} damaged journal lines recomputed", damaged) : "",
+      sweep.name, s.layouts, resumed, damaged ? fmt::format(", {} damaged or repeated journal lines dropped", damaged) : "",
       s.evaluated, s.errors, s.meeting, s.best_front, best_front_name, s.trade_front, trade_front_name);
   if (s.skipped.total() > 0)
     note += fmt::format("skipped combinations: {} (P not dividing T: {}, F outside 0..P-1: {}, no sun-synchronous "
