@@ -5,6 +5,8 @@
 #include <string>
 
 #include "skein/error.hpp"
+#include "skein/budget/budget.hpp"
+#include "skein/sweep/evaluate_layout.hpp"
 #include "skein/sweep/layouts.hpp"
 #include "skein/sweep/sweep_spec.hpp"
 
@@ -254,4 +256,29 @@ TEST_CASE("sweep: planes is a cost, read from the design's plane count") {
   REQUIRE(s.costs.size() == 2);
   CHECK(s.costs[0] == CostFigure::planes);
   CHECK(*cost_figure_from_string("planes") == CostFigure::planes);
+}
+
+TEST_CASE("sweep: the design-wide axes reach the evaluators") {
+  // One relay layout (moved to 600 km, where it decays within the 200-year horizon) per value of each axis,
+  // coarse grid. Directions, not values:
+  // a narrower payload cone sees less ground (footprint from the cone, Wertz & Larson, SMAD 3rd ed. sec. 5.2,
+  // MEMORY); a longer life needs more station-keeping delta-v (every yearly line scales with the life); high
+  // solar activity heats and expands the thermosphere, so the natural lifetime is shorter (Vallado 2013
+  // sec. 8.6.2, MEMORY).
+  const Sweep s = read_sweep_text(
+      two_shell_text("    - shell: relay\n      altitude_km: 600\n",
+                     "  nadir_half_angle_deg: [30, 60]\n  mission_life_years: [3, 7]\n"
+                                             "  solar_activity: [low, high]\n"),
+      "s.yaml", folder);
+  const LayoutSet set = expand_layouts(s);
+  REQUIRE(set.layouts.size() == 8);  // nadir (outer) x life x solar (inner)
+  std::vector<LayoutMetrics> m;
+  for (const Layout& l : set.layouts) m.push_back(evaluate_layout(s, l));
+  for (const LayoutMetrics& x : m) REQUIRE(x.evaluated);
+  CHECK(m[0].percent_covered < m[4].percent_covered);        // cone 30 deg < 60 deg
+  CHECK(m[0].dv_per_satellite_m_s < m[2].dv_per_satellite_m_s);  // 3 years < 7 years
+  CHECK(m[0].lifetime_days > m[1].lifetime_days);            // low activity outlives high
+  // Per-satellite figures are the first varied shell's (relay, shell 1): its lifetime, not imaging's.
+  const BudgetResult b = compute_budget(layout_design(s, set.layouts[0]), BudgetOptions{});
+  CHECK(m[0].lifetime_days == b.shells.at(1).lifetime_natural_days);
 }
