@@ -1,4 +1,4 @@
-// skein sweep SWEEP.yaml: evaluate many layouts of one shell (coverage and budget), keep every row in a
+// skein sweep SWEEP.yaml: evaluate many layouts of one or several shells (coverage and budget), keep every row in a
 // journal as it finishes, and write the results table, the best front (meets requirement) and the trade front
 // (all layouts). Runs on the cores of one machine
 // (TBB) and, started by an MPI launcher, over the ranks of a cluster (mpi_split).
@@ -95,7 +95,7 @@ struct Options {
   std::string sweep;
   std::string out;
   std::string format = "table";
-  bool resume = false, restart = false, force = false, exhaustive = false, overwrite = false;
+  bool resume = false, salvage = false, restart = false, force = false, exhaustive = false, overwrite = false;
   int threads = 0;
 };
 
@@ -140,20 +140,25 @@ std::map<size_t, std::string> open_journal(const Options& opt, const std::string
   std::map<size_t, std::string> rows;
   if (std::filesystem::exists(path) && !opt.restart) {
     const std::string text = read_text(path);
-    if (!opt.resume && text.size() > header.size())
+    if (!opt.resume && !opt.salvage && text.size() > header.size())
       throw InputError(fmt::format("{}: a journal of an earlier run is there; pass --resume to continue it or --restart "
                                    "to discard it",
                                    path));
-    if (opt.resume) {
-      const JournalContents j = parse_journal(text, header, set.layouts.size(), sweep_columns(sweep).size(), path);
+    if (opt.resume || opt.salvage) {
+      JournalReadOptions read;
+      read.layouts = set.layouts.size();
+      read.columns = sweep_columns(sweep).size();
+      read.belongs = [&](size_t i, const std::vector<Cell>& cells) { return row_is_layout(sweep, set.layouts[i], cells); };
+      read.salvage = opt.salvage;
+      const JournalContents j = parse_journal(text, header, read, path);
       rows = j.rows;
       *damaged = j.damaged_lines;
+      // Valid lines only, so that appended lines never follow a cut-short one; in place, without a second copy.
+      rewrite_journal_in_place(path, text, j.compact);
+      return rows;
     }
   }
-  // Rewrite it with the valid lines only, so that appended lines never follow a cut-short one.
-  std::string compact = header;
-  for (const auto& [i, row] : rows) compact += journal_line(i, row);
-  write_file_atomic(path, compact);
+  write_file_atomic(path, header);
   return rows;
 }
 
@@ -162,7 +167,8 @@ std::string figures_text(const Sweep& sweep, const RowSummary& row) {
   std::string text;
   for (size_t k = 0; k < sweep.costs.size(); ++k)
     text += fmt::format("{}{} {}", k ? ", " : "", to_string(sweep.costs[k]),
-                        sweep.costs[k] == CostFigure::satellites ? fmt::format("{:.0f}", row.costs[k])
+                        sweep.costs[k] == CostFigure::satellites || sweep.costs[k] == CostFigure::planes
+                            ? fmt::format("{:.0f}", row.costs[k])
                                                                  : fmt::format("{:.2f}", row.costs[k]));
   return text + fmt::format(", {} {:.3f}", to_string(sweep.requirement.figure), row.figure);
 }
@@ -180,7 +186,7 @@ void write_outputs(const Options& opt, const std::string& dir, const Sweep& swee
   std::string note = fmt::format(
       "sweep {}: {} layouts ({} resumed from the journal{}), {} evaluated, {} refused by an evaluator, {} meet the "
       "requirement; {} on the {}, {} on the {}\n",
-      sweep.name, s.layouts, resumed, damaged ? fmt::format(", {} damaged journal lines recomputed", damaged) : "",
+      sweep.name, s.layouts, resumed, damaged ? fmt::format(", {} damaged or repeated journal lines dropped", damaged) : "",
       s.evaluated, s.errors, s.meeting, s.best_front, best_front_name, s.trade_front, trade_front_name);
   if (s.skipped.total() > 0)
     note += fmt::format("skipped combinations: {} (P not dividing T: {}, F outside 0..P-1: {}, no sun-synchronous "
@@ -277,8 +283,11 @@ void run(const Options& opt) {
 
   const double pending_estimate_s =
       estimate_s * static_cast<double>(pending.size()) / static_cast<double>(std::max<size_t>(1, set.layouts.size()));
-  print_stderr(fmt::format("sweep {}: {} layouts of shell {}, {} to evaluate{}{}\n", sweep.name, set.layouts.size(),
-                           sweep.base.shells[sweep.shell_index].name, pending.size(),
+  std::string shells;
+  for (const ShellAxes& a : sweep.axes.shells)
+    shells += (shells.empty() ? "" : ", ") + sweep.base.shells[a.shell_index].name;
+  print_stderr(fmt::format("sweep {}: {} layouts of shell{} {}, {} to evaluate{}{}\n", sweep.name, set.layouts.size(),
+                           sweep.axes.shells.size() > 1 ? "s" : "", shells, pending.size(),
                            ranks > 1 ? fmt::format(" over {} ranks", ranks) : "",
                            pending_estimate_s >= 60.0
                                ? fmt::format("; the coverage work alone is estimated at about {} on 2 cores",
@@ -329,8 +338,9 @@ void run(const Options& opt) {
 void add_sweep_command(CLI::App& app) {
   auto opt = std::make_shared<Options>();
   CLI::App* cmd = app.add_subcommand(
-      "sweep", "Trade sweep: evaluate coverage and budget for every layout of a sweep file's axes (T, P, F, altitude, "
-               "inclination or sun-synchronous node times, elevation mask), mark the layouts meeting the requirement, "
+      "sweep", "Trade sweep: evaluate coverage and budget for every layout of a sweep file's axes (per varied shell: "
+               "T, P, F, pattern, altitude, inclination or sun-synchronous node times; design-wide: elevation mask, "
+               "nadir half-angle, drag area, dry mass, mission life, solar activity), mark the layouts meeting the requirement, "
                "name the cheapest layout meeting the requirement and the best front (meets requirement) of requirement figure "
                "against cost, beside the trade front over all layouts. Start it with an MPI launcher "
                "(mpirun -n N skein sweep ...) to split the layouts over ranks");
@@ -338,6 +348,9 @@ void add_sweep_command(CLI::App& app) {
   cmd->add_option("--out", opt->out, "Output folder (default: SWEEP-NAME-results in the current folder)");
   add_format_option(*cmd, opt->format);
   cmd->add_flag("--resume", opt->resume, "Continue an interrupted sweep from its journal (finished rows are kept)");
+  cmd->add_flag("--salvage", opt->salvage,
+                "Resume from a journal whose first line is damaged: keep every row whose checksum and layout index "
+                "are valid, compute the others");
   cmd->add_flag("--restart", opt->restart, "Discard an earlier run's journal and start over");
   cmd->add_flag("--overwrite", opt->overwrite,
                 "Write into an existing --out folder even when skein did not write it (its result files are replaced)");
@@ -346,7 +359,9 @@ void add_sweep_command(CLI::App& app) {
   cmd->add_flag("--exhaustive", opt->exhaustive, "Test every (satellite, point) pair instead of culling footprints");
   add_threads_option(*cmd, opt->threads, "Worker threads per process (default: all cores); rows do not depend on it");
   cmd->callback([opt] {
-    if (opt->resume && opt->restart) throw InputError("--resume and --restart exclude each other; expected one of them");
+    if ((opt->resume || opt->salvage) && opt->restart)
+      throw InputError(fmt::format("{} and --restart exclude each other; expected one of them",
+                                   opt->salvage ? "--salvage" : "--resume"));
     run(*opt);
   });
 }

@@ -124,7 +124,7 @@ TEST_CASE("sweep: assemble_outputs names the brute-force cheapest layout and bui
     std::map<size_t, std::string> rows;
     for (const Layout& l : set.layouts) {
       LayoutMetrics m;
-      m.design_satellites = l.satellites + 8;  // the demo's relay shell holds 8
+      m.design_satellites = l.shells[0].satellites + 8;  // the demo's relay shell holds 8
       m.evaluated = pick(rng) != 0 || trial == 0;
       if (!m.evaluated) {
         m.error = "refused";

@@ -34,6 +34,7 @@ std::string read_text(const std::string& path) {
 
 // The demo design with its imaging shell rewritten for the layout, and the small sweep's coverage block.
 std::string layout_yaml(const Layout& l, double base_raan_deg) {
+  const ShellChoice& c = l.shells.at(0);
   std::string text = read_text(root + "/designs/demo.yaml");
   const std::string block =
       "    satellites: 12\n    planes: 3\n    phasing: 1\n    altitude_km: 540\n    inclination_deg: sun-synchronous\n"
@@ -41,11 +42,11 @@ std::string layout_yaml(const Layout& l, double base_raan_deg) {
   const size_t at = text.find(block);
   REQUIRE(at != std::string::npos);
   std::string shell = fmt::format("    satellites: {}\n    planes: {}\n    phasing: {}\n    altitude_km: {}\n",
-                                  l.satellites, l.planes, l.phasing, l.altitude_km);
-  if (l.sun_synchronous)
-    shell += fmt::format("    inclination_deg: sun-synchronous\n    ltan: \"{}\"\n", l.ltan->text);
+                                  c.satellites, c.planes, c.phasing, c.altitude_km);
+  if (c.sun_synchronous)
+    shell += fmt::format("    inclination_deg: sun-synchronous\n    ltan: \"{}\"\n", c.ltan->text);
   else
-    shell += fmt::format("    inclination_deg: {}\n    raan_deg: {:.17g}\n", l.inclination_deg, base_raan_deg);
+    shell += fmt::format("    inclination_deg: {}\n    raan_deg: {:.17g}\n", c.inclination_deg, base_raan_deg);
   text.replace(at, block.size(), shell);
   text += fmt::format("coverage:\n  grid:\n    kind: global\n    spacing_deg: 10\n  span_h: 6\n  step_s: 120\n"
                       "  min_elevation_deg: {}\n",

@@ -36,7 +36,10 @@ CoverageOptions sweep_coverage_options(const Sweep& sweep, const LayoutEvaluatio
 LayoutMetrics evaluate_layout(const Sweep& sweep, const Layout& layout, const LayoutEvaluationOptions& options) {
   LayoutMetrics m;
   const Design design = layout_design(sweep, layout);
-  for (const Shell& s : design.shells) m.design_satellites += s.satellites;
+  for (const Shell& s : design.shells) {
+    m.design_satellites += s.satellites;
+    m.design_planes += s.pattern == PatternKind::explicit_planes ? static_cast<int>(s.explicit_planes.size()) : s.planes;
+  }
   try {
     const CoverageResult cov = evaluate_coverage(design, sweep_coverage_options(sweep, options));
     BudgetOptions bopt;

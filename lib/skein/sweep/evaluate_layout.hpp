@@ -20,6 +20,7 @@ struct LayoutMetrics {
   bool evaluated = false;  // false: the evaluators refused the layout (error holds why)
   std::string error;
   int design_satellites = 0;         // every shell
+  int design_planes = 0;             // every shell's orbit planes (explicit shells: their listed planes)
   // coverage, over the design's (or the sweep's) grid, area-weighted; fold k = requirement.fold
   double percent_covered = 0.0;      // at fold k
   // cap-area lower bound (coverage/cap_bound.hpp): the least T of the varied shell, the other shells as they
@@ -28,8 +29,8 @@ struct LayoutMetrics {
   double worst_instant_percent = 0.0;  // at fold k
   double max_gap_s = 0.0, mean_gap_s = 0.0, p95_gap_s = 0.0, mean_response_time_s = 0.0;  // fold 1
   double mean_in_view = 0.0;
-  // budget of the varied shell and of the whole design
-  double lifetime_days = 0.0;        // varied shell, natural, selected solar activity
+  // budget of the (first) varied shell and of the whole design
+  double lifetime_days = 0.0;        // first varied shell, natural, selected solar activity
   bool lifetime_lower_bound = false;
   double dv_per_satellite_m_s = 0.0; // varied shell, margin included
   double fleet_dv_m_s = 0.0;         // every satellite of the design

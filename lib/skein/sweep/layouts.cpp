@@ -1,5 +1,7 @@
 #include "skein/sweep/layouts.hpp"
 
+#include <algorithm>
+
 #include <fmt/format.h>
 
 #include "skein/error.hpp"
@@ -9,28 +11,95 @@
 namespace skein {
 namespace {
 
+enum class Skip { none, planes_not_dividing, phasing_out_of_range, no_sun_synchronous };
+
+// One combination of a shell's axes: a valid choice, or why it is not a layout.
+struct RawChoice {
+  ShellChoice choice;
+  Skip skip = Skip::none;
+};
+
 // Inclination choices times node local times: each sun-synchronous choice once per ltan.
-size_t orbit_plane_choices(const SweepAxes& ax) {
+size_t orbit_plane_choices(const ShellAxes& ax) {
   size_t n = 0;
   for (const auto& c : ax.inclinations) n += c.sun_synchronous ? ax.ltans.size() : 1;
   return n;
 }
 
-int other_satellites(const Sweep& sweep) {
-  int n = 0;
-  for (size_t s = 0; s < sweep.base.shells.size(); ++s)
-    if (s != sweep.shell_index) n += sweep.base.shells[s].satellites;
-  return n;
+double shell_combinations(const ShellAxes& ax) {
+  double f_per_tp = 0.0;
+  for (int p : ax.planes) f_per_tp += ax.phasing ? static_cast<double>(ax.phasing->size()) : static_cast<double>(p);
+  return static_cast<double>(ax.satellites.size()) * f_per_tp * static_cast<double>(ax.patterns.size()) *
+         static_cast<double>(ax.altitude_km.size()) * static_cast<double>(orbit_plane_choices(ax));
+}
+
+double design_wide_combinations(const SweepAxes& ax) {
+  return static_cast<double>(ax.min_elevation_deg.size() * ax.nadir_half_angle_deg.size() * ax.drag_area_m2.size() *
+                             ax.dry_mass_kg.size() * ax.mission_life_years.size() * ax.solar_activity.size());
+}
+
+// Every combination of one shell's axes, in the numbering's nesting order.
+std::vector<RawChoice> shell_choices(const Sweep& sweep, const ShellAxes& ax) {
+  const Shell& shell = sweep.base.shells[ax.shell_index];
+  const EarthModel& earth = sweep.base.earth;
+  std::vector<RawChoice> out;
+  for (int t : ax.satellites) {
+    for (int p : ax.planes) {
+      std::vector<int> fs;
+      if (ax.phasing) {
+        fs = *ax.phasing;
+      } else {
+        for (int f = 0; f < p; ++f) fs.push_back(f);
+      }
+      for (int f : fs) {
+        for (PatternKind pattern : ax.patterns) {
+          for (double alt : ax.altitude_km) {
+            const double a_km = earth.radius_km + alt;
+            for (const InclinationChoice& c : ax.inclinations) {
+              std::vector<std::optional<LocalTimeChoice>> times;
+              if (c.sun_synchronous) {
+                for (const auto& lt : ax.ltans) times.emplace_back(lt);
+              } else {
+                times.emplace_back(std::nullopt);
+              }
+              std::optional<double> sso_i;
+              if (c.sun_synchronous)
+                if (const auto i = sun_synchronous_inclination_rad(earth, a_km, shell.e)) sso_i = *i * deg_per_rad;
+              for (const auto& lt : times) {
+                RawChoice r;
+                if (t % p != 0)
+                  r.skip = Skip::planes_not_dividing;
+                else if (f < 0 || f > p - 1)
+                  r.skip = Skip::phasing_out_of_range;
+                else if (c.sun_synchronous && !sso_i)
+                  r.skip = Skip::no_sun_synchronous;
+                ShellChoice& s = r.choice;
+                s.shell_index = ax.shell_index;
+                s.satellites = t;
+                s.planes = p;
+                s.phasing = f;
+                s.pattern = pattern;
+                s.altitude_km = alt;
+                s.sun_synchronous = c.sun_synchronous;
+                s.inclination_deg = sso_i ? *sso_i : c.inclination_deg;
+                s.ltan = lt;
+                out.push_back(r);
+              }
+            }
+          }
+        }
+      }
+    }
+  }
+  return out;
 }
 
 }  // namespace
 
 double combination_count(const Sweep& sweep) {
-  const SweepAxes& ax = sweep.axes;
-  double f_per_tp = 0.0;
-  for (int p : ax.planes) f_per_tp += ax.phasing ? static_cast<double>(ax.phasing->size()) : static_cast<double>(p);
-  return static_cast<double>(ax.satellites.size()) * f_per_tp * static_cast<double>(ax.altitude_km.size()) *
-         static_cast<double>(orbit_plane_choices(ax)) * static_cast<double>(ax.min_elevation_deg.size());
+  double n = design_wide_combinations(sweep.axes);
+  for (const ShellAxes& s : sweep.axes.shells) n *= shell_combinations(s);
+  return n;
 }
 
 LayoutSet expand_layouts(const Sweep& sweep, double max_layouts) {
@@ -44,70 +113,56 @@ LayoutSet expand_layouts(const Sweep& sweep, double max_layouts) {
     throw InputError(fmt::format("{}: axes: the axes combine into {:.0f} layouts, above the limit of {:.0f}; expected "
                                  "fewer values, or pass --force to run them all",
                                  sweep.axes_location, combos, max_layouts));
-  const Shell& shell = sweep.base.shells[sweep.shell_index];
-  const EarthModel& earth = sweep.base.earth;
-  const int others = other_satellites(sweep);
-  const auto inner = static_cast<long>(ax.altitude_km.size() * orbit_plane_choices(ax) * ax.min_elevation_deg.size());
-  const auto per_altitude = static_cast<long>(ax.min_elevation_deg.size());
+  std::vector<std::vector<RawChoice>> raw;
+  for (const ShellAxes& s : ax.shells) raw.push_back(shell_choices(sweep, s));
+  std::vector<bool> varied(sweep.base.shells.size(), false);
+  for (const ShellAxes& s : ax.shells) varied[s.shell_index] = true;
+  int fixed_satellites = 0;  // the shells that are not varied
+  for (size_t s = 0; s < sweep.base.shells.size(); ++s)
+    if (!varied[s]) fixed_satellites += sweep.base.shells[s].satellites;
+  const auto inner = static_cast<long>(design_wide_combinations(ax));
   LayoutSet set;
-  for (int t : ax.satellites) {
-    for (int p : ax.planes) {
-      if (t % p != 0) {
-        set.skipped.planes_not_dividing += inner * (ax.phasing ? static_cast<long>(ax.phasing->size()) : p);
-        continue;
-      }
-      std::vector<int> fs;
-      if (ax.phasing) {
-        fs = *ax.phasing;
-      } else {
-        for (int f = 0; f < p; ++f) fs.push_back(f);
-      }
-      for (int f : fs) {
-        if (f < 0 || f > p - 1) {
-          set.skipped.phasing_out_of_range += inner;
-          continue;
-        }
-        if (t + others < sweep.requirement.fold) {
-          set.skipped.fold_above_satellites += inner;
-          continue;
-        }
-        for (double alt : ax.altitude_km) {
-          const double a_km = earth.radius_km + alt;
-          for (const InclinationChoice& c : ax.inclinations) {
-            std::vector<std::optional<LocalTimeChoice>> times;
-            if (c.sun_synchronous) {
-              for (const auto& lt : ax.ltans) times.emplace_back(lt);
-            } else {
-              times.emplace_back(std::nullopt);
-            }
-            std::optional<double> sso_i;
-            if (c.sun_synchronous) {
-              const auto i = sun_synchronous_inclination_rad(earth, a_km, shell.e);
-              if (!i) {
-                set.skipped.no_sun_synchronous += per_altitude * static_cast<long>(times.size());
-                continue;
-              }
-              sso_i = *i * deg_per_rad;
-            }
-            for (const auto& lt : times) {
-              for (double elev : ax.min_elevation_deg) {
-                Layout l;
-                l.index = set.layouts.size();
-                l.satellites = t;
-                l.planes = p;
-                l.phasing = f;
-                l.altitude_km = alt;
-                l.sun_synchronous = c.sun_synchronous;
-                l.inclination_deg = sso_i ? *sso_i : c.inclination_deg;
-                l.ltan = lt;
-                l.min_elevation_deg = elev;
-                set.layouts.push_back(l);
-              }
-            }
-          }
-        }
-      }
+  // An odometer over the shells' combinations, the first shell outermost.
+  std::vector<size_t> at(raw.size(), 0);
+  if (std::any_of(raw.begin(), raw.end(), [](const auto& r) { return r.empty(); })) at.clear();
+  while (!at.empty()) {
+    Skip skip = Skip::none;
+    int satellites = fixed_satellites;
+    for (size_t k = 0; k < raw.size() && skip == Skip::none; ++k) {
+      skip = raw[k][at[k]].skip;
+      satellites += raw[k][at[k]].choice.satellites;
     }
+    switch (skip) {
+      case Skip::planes_not_dividing: set.skipped.planes_not_dividing += inner; break;
+      case Skip::phasing_out_of_range: set.skipped.phasing_out_of_range += inner; break;
+      case Skip::no_sun_synchronous: set.skipped.no_sun_synchronous += inner; break;
+      case Skip::none:
+        if (satellites < sweep.requirement.fold) {
+          set.skipped.fold_above_satellites += inner;
+          break;
+        }
+        for (double elev : ax.min_elevation_deg)
+          for (const auto& nadir : ax.nadir_half_angle_deg)
+            for (double area : ax.drag_area_m2)
+              for (double mass : ax.dry_mass_kg)
+                for (double life : ax.mission_life_years)
+                  for (SolarLevel solar : ax.solar_activity) {
+                    Layout l;
+                    l.index = set.layouts.size();
+                    for (size_t k = 0; k < raw.size(); ++k) l.shells.push_back(raw[k][at[k]].choice);
+                    l.min_elevation_deg = elev;
+                    l.nadir_half_angle_deg = nadir;
+                    l.drag_area_m2 = area;
+                    l.dry_mass_kg = mass;
+                    l.mission_life_years = life;
+                    l.solar_activity = solar;
+                    set.layouts.push_back(std::move(l));
+                  }
+        break;
+    }
+    size_t k = raw.size();
+    while (k > 0 && ++at[k - 1] == raw[k - 1].size()) at[--k] = 0;
+    if (k == 0) break;
   }
   if (set.layouts.empty())
     throw InputError(fmt::format("{}: axes: no valid layout: {} combinations skipped (P not dividing T: {}, F outside "
@@ -122,23 +177,36 @@ LayoutSet expand_layouts(const Sweep& sweep, double max_layouts) {
 Design layout_design(const Sweep& sweep, const Layout& l) {
   Design d = sweep.base;
   d.name = fmt::format("{} / layout {}", sweep.base.name, l.index);
-  Shell& s = d.shells[sweep.shell_index];
-  s.satellites = l.satellites;
-  s.planes = l.planes;
-  s.phasing = l.phasing;
-  s.a_km = d.earth.radius_km + l.altitude_km;
-  s.inclination_deg = l.inclination_deg;
-  s.sun_synchronous = l.sun_synchronous;
-  if (l.ltan) {
-    s.ltan_h = l.ltan->hours;
-    s.raan0_deg = node_for_local_time_rad(l.ltan->hours, julian_date(d.epoch)) * deg_per_rad;
-  } else {
-    s.ltan_h = std::nullopt;  // the first node stays the base shell's node at epoch
+  for (const ShellChoice& c : l.shells) {
+    Shell& s = d.shells[c.shell_index];
+    s.satellites = c.satellites;
+    s.planes = c.planes;
+    s.phasing = c.phasing;
+    s.pattern = c.pattern;
+    s.a_km = d.earth.radius_km + c.altitude_km;
+    s.inclination_deg = c.inclination_deg;
+    s.sun_synchronous = c.sun_synchronous;
+    if (c.ltan) {
+      s.ltan_h = c.ltan->hours;
+      s.raan0_deg = node_for_local_time_rad(c.ltan->hours, julian_date(d.epoch)) * deg_per_rad;
+    } else {
+      s.ltan_h = std::nullopt;  // the first node stays the base shell's node at epoch
+    }
   }
   d.coverage.min_elevation_deg = l.min_elevation_deg;
+  d.coverage.nadir_half_angle_deg = l.nadir_half_angle_deg;
+  d.spacecraft.drag_area_m2 = l.drag_area_m2;
+  d.spacecraft.dry_mass_kg = l.dry_mass_kg;
+  d.budget.mission_life_years = l.mission_life_years;
+  d.budget.solar = l.solar_activity;
   return d;
 }
 
-std::string walker_label(const Layout& l) { return fmt::format("{}/{}/{}", l.satellites, l.planes, l.phasing); }
+std::string walker_label(const Layout& l) {
+  std::string out;
+  for (const ShellChoice& c : l.shells)
+    out += fmt::format("{}{}/{}/{}", out.empty() ? "" : " + ", c.satellites, c.planes, c.phasing);
+  return out;
+}
 
 }  // namespace skein

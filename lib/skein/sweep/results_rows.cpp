@@ -27,19 +27,111 @@ double number_of(const Cell& c) {
 
 }  // namespace
 
+namespace {
+
+// "imaging." before a per-shell key and "imaging " before its heading when several shells are varied.
+struct ShellPrefix {
+  std::string key, heading;
+};
+ShellPrefix prefix_of(const Sweep& sweep, size_t k) {
+  if (sweep.axes.shells.size() == 1) return {};
+  const std::string& name = sweep.base.shells[sweep.axes.shells[k].shell_index].name;
+  return {name + ".", name + " "};
+}
+
+void add_design_wide_columns(const Sweep& sweep, std::vector<Column>& c) {
+  const SweepAxes& ax = sweep.axes;
+  c.push_back({"min_elevation_deg", "elevation mask", "deg", 1});
+  if (ax.nadir_given) c.push_back({"nadir_half_angle_deg", "nadir half-angle", "deg", 2});
+  if (ax.drag_area_given) c.push_back({"drag_area_m2", "drag area", "m2", 4});
+  if (ax.dry_mass_given) c.push_back({"dry_mass_kg", "dry mass", "kg", 2});
+  if (ax.mission_life_given) c.push_back({"mission_life_years", "mission life", "years", 2});
+  if (ax.solar_given) c.push_back({"solar_activity", "solar activity", "", 0});
+}
+
+void add_design_wide_cells(const Sweep& sweep, const Layout& l, std::vector<Cell>& r) {
+  const SweepAxes& ax = sweep.axes;
+  r.emplace_back(l.min_elevation_deg);
+  if (ax.nadir_given) r.push_back(l.nadir_half_angle_deg ? Cell(*l.nadir_half_angle_deg) : Cell());
+  if (ax.drag_area_given) r.emplace_back(l.drag_area_m2);
+  if (ax.dry_mass_given) r.emplace_back(l.dry_mass_kg);
+  if (ax.mission_life_given) r.emplace_back(l.mission_life_years);
+  if (ax.solar_given) r.emplace_back(std::string(to_string(l.solar_activity)));
+}
+
+}  // namespace
+
+std::vector<Column> layout_columns(const Sweep& sweep) {
+  std::vector<Column> c = {{"layout", "layout", "", 0}};
+  for (size_t k = 0; k < sweep.axes.shells.size(); ++k) {
+    const ShellPrefix p = prefix_of(sweep, k);
+    c.push_back({p.key + "satellites", p.heading + "T", "", 0});
+    c.push_back({p.key + "planes", p.heading + "P", "", 0});
+    c.push_back({p.key + "phasing", p.heading + "F", "", 0});
+    if (sweep.axes.shells[k].pattern_given) c.push_back({p.key + "pattern", p.heading + "pattern", "", 0});
+    c.push_back({p.key + "altitude_km", p.heading + "altitude", "km", 1});
+    c.push_back({p.key + "inclination_deg", p.heading + "inclination", "deg", 3});
+    c.push_back({p.key + "sun_synchronous", p.heading + "SSO", "", 0});
+    c.push_back({p.key + "ltan", p.heading + "LTAN", "", 0});
+  }
+  add_design_wide_columns(sweep, c);
+  return c;
+}
+
+std::vector<Cell> layout_cells(const Sweep& sweep, const Layout& l) {
+  std::vector<Cell> r = {static_cast<long>(l.index)};
+  for (size_t k = 0; k < l.shells.size(); ++k) {
+    const ShellChoice& s = l.shells[k];
+    r.emplace_back(static_cast<long>(s.satellites));
+    r.emplace_back(static_cast<long>(s.planes));
+    r.emplace_back(static_cast<long>(s.phasing));
+    if (sweep.axes.shells[k].pattern_given) r.emplace_back(std::string(to_string(s.pattern)));
+    r.emplace_back(s.altitude_km);
+    r.emplace_back(s.inclination_deg);
+    r.push_back(yes_no(s.sun_synchronous));
+    r.push_back(s.ltan ? Cell(s.ltan->text) : Cell());
+  }
+  add_design_wide_cells(sweep, l, r);
+  return r;
+}
+
+bool row_is_layout(const Sweep& sweep, const Layout& layout, const std::vector<Cell>& cells) {
+  const std::vector<Cell> want = layout_cells(sweep, layout);
+  return cells.size() >= want.size() && std::equal(want.begin(), want.end(), cells.begin());
+}
+
+std::vector<Column> front_layout_columns(const Sweep& sweep) {
+  std::vector<Column> c = {{"layout", "layout", "", 0}, {"walker", "T/P/F", "", 0}};
+  for (size_t k = 0; k < sweep.axes.shells.size(); ++k) {
+    const ShellPrefix p = prefix_of(sweep, k);
+    if (sweep.axes.shells[k].pattern_given) c.push_back({p.key + "pattern", p.heading + "pattern", "", 0});
+    c.push_back({p.key + "altitude_km", p.heading + "altitude", "km", 1});
+    c.push_back({p.key + "inclination_deg", p.heading + "inclination", "deg", 3});
+    c.push_back({p.key + "ltan", p.heading + "LTAN", "", 0});
+  }
+  add_design_wide_columns(sweep, c);
+  return c;
+}
+
+std::vector<Cell> front_layout_cells(const Sweep& sweep, const Layout& l) {
+  std::vector<Cell> r = {static_cast<long>(l.index), walker_label(l)};
+  for (size_t k = 0; k < l.shells.size(); ++k) {
+    const ShellChoice& s = l.shells[k];
+    if (sweep.axes.shells[k].pattern_given) r.emplace_back(std::string(to_string(s.pattern)));
+    r.emplace_back(s.altitude_km);
+    r.emplace_back(s.inclination_deg);
+    r.push_back(s.ltan ? Cell(s.ltan->text) : Cell());
+  }
+  add_design_wide_cells(sweep, l, r);
+  return r;
+}
+
 std::vector<Column> sweep_columns(const Sweep& sweep) {
   const std::string k = std::to_string(sweep.requirement.fold);
-  return {
-      {"layout", "layout", "", 0},
-      {"satellites", "T", "", 0},
-      {"planes", "P", "", 0},
-      {"phasing", "F", "", 0},
-      {"altitude_km", "altitude", "km", 1},
-      {"inclination_deg", "inclination", "deg", 3},
-      {"sun_synchronous", "SSO", "", 0},
-      {"ltan", "LTAN", "", 0},
-      {"min_elevation_deg", "elevation mask", "deg", 1},
+  std::vector<Column> c = layout_columns(sweep);
+  const std::vector<Column> figures = {
       {"design_satellites", "design satellites", "", 0},
+      {"design_planes", "design planes", "", 0},
       {"status", "status", "", 0},
       {"percent_covered", "covered k>=" + k, "%", 3},
       {"cap_bound_satellites", "cap bound T k>=" + k, "", 0},
@@ -59,23 +151,16 @@ std::vector<Column> sweep_columns(const Sweep& sweep) {
       {"failed_checks", "failed checks", "", 0},
       {"note", "note", "", 0},
   };
+  c.insert(c.end(), figures.begin(), figures.end());
+  return c;
 }
 
-std::vector<Cell> layout_row([[maybe_unused]] const Sweep& sweep, const Layout& l, const LayoutMetrics& m) {
-  std::vector<Cell> row = {
-      static_cast<long>(l.index),
-      static_cast<long>(l.satellites),
-      static_cast<long>(l.planes),
-      static_cast<long>(l.phasing),
-      l.altitude_km,
-      l.inclination_deg,
-      yes_no(l.sun_synchronous),
-      l.ltan ? Cell(l.ltan->text) : Cell(),
-      l.min_elevation_deg,
-      static_cast<long>(m.design_satellites),
-      // ok, cannot-fly (evaluated, but some shell's budget cannot be flown: see note), or error
-      std::string(!m.evaluated ? "error" : m.cannot_fly.empty() ? "ok" : "cannot-fly"),
-  };
+std::vector<Cell> layout_row(const Sweep& sweep, const Layout& l, const LayoutMetrics& m) {
+  std::vector<Cell> row = layout_cells(sweep, l);
+  row.emplace_back(static_cast<long>(m.design_satellites));
+  row.emplace_back(static_cast<long>(m.design_planes));
+  // ok, cannot-fly (evaluated, but some shell's budget cannot be flown: see note), or error
+  row.emplace_back(std::string(!m.evaluated ? "error" : m.cannot_fly.empty() ? "ok" : "cannot-fly"));
   if (m.evaluated) {
     std::string failed;
     for (const auto& f : m.failed) failed += (failed.empty() ? "" : "; ") + f;
@@ -149,6 +234,7 @@ RowSummary summarize_row(const Sweep& sweep, const std::vector<Cell>& cells) {
     double v = 0.0;
     switch (c) {
       case CostFigure::satellites: v = number_of(cells.at(column_of(sweep, "design_satellites"))); break;
+      case CostFigure::planes: v = number_of(cells.at(column_of(sweep, "design_planes"))); break;
       default: v = number_of(cells.at(column_of(sweep, to_string(c)))); break;
     }
     s.costs.push_back(v);

@@ -11,8 +11,22 @@
 
 namespace skein {
 
-// The columns of a results row (the final results file adds the "front" column).
+// The columns of a results row (the final results file adds the two front columns). The leading ones say which
+// layout the row is (layout_columns); the rest are its figures.
 std::vector<Column> sweep_columns(const Sweep& sweep);
+
+// The columns that name a layout, and a layout's cells in them: the index, then each varied shell's T, P, F,
+// pattern (when the file varies it), altitude, inclination, SSO and LTAN (keys prefixed "SHELL." when several
+// shells are varied), then the elevation mask and each design-wide axis the file gives.
+std::vector<Column> layout_columns(const Sweep& sweep);
+std::vector<Cell> layout_cells(const Sweep& sweep, const Layout& layout);
+// True when `cells` (a decoded row) is a row of `layout`: its leading cells equal layout_cells exactly.
+bool row_is_layout(const Sweep& sweep, const Layout& layout, const std::vector<Cell>& cells);
+
+// The shorter form the front tables use: the index, "T/P/F" of each varied shell, each varied shell's altitude,
+// inclination and LTAN (and pattern when varied), the elevation mask and each design-wide axis the file gives.
+std::vector<Column> front_layout_columns(const Sweep& sweep);
+std::vector<Cell> front_layout_cells(const Sweep& sweep, const Layout& layout);
 
 // The cells of one layout's row.
 std::vector<Cell> layout_row(const Sweep& sweep, const Layout& layout, const LayoutMetrics& metrics);

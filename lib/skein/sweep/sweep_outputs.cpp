@@ -32,6 +32,7 @@ std::string cost_heading(CostFigure c) {
     case CostFigure::fleet_propellant_kg: return "fleet propellant (kg)";
     case CostFigure::dv_per_satellite_m_s: return "delta-v per satellite (m/s)";
     case CostFigure::propellant_per_satellite_kg: return "propellant per satellite (kg)";
+    case CostFigure::planes: return "orbit planes in the design";
   }
   return "";
 }
@@ -44,6 +45,7 @@ Column cost_column(CostFigure c) {
     case CostFigure::dv_per_satellite_m_s: return {"dv_per_satellite_m_s", "delta-v per satellite", "m/s", 3};
     case CostFigure::propellant_per_satellite_kg:
       return {"propellant_per_satellite_kg", "propellant per satellite", "kg", 3};
+    case CostFigure::planes: return {"planes_cost", "planes", "", 0};
   }
   return {};
 }
@@ -72,18 +74,17 @@ Table front_table(const Sweep& sweep, const LayoutSet& set, const std::vector<Ro
   for (CostFigure c : sweep.costs) costs += (costs.empty() ? "" : ", ") + std::string(to_string(c));
   t.title = fmt::format("Sweep {}: {}, {} against {}, cheapest first", sweep.name, name,
                         to_string(sweep.requirement.figure), costs);
-  t.columns = {{"layout", "layout", "", 0},          {"walker", "T/P/F", "", 0},
-               {"altitude_km", "altitude", "km", 1},  {"inclination_deg", "inclination", "deg", 3},
-               {"ltan", "LTAN", "", 0},               {"min_elevation_deg", "elevation mask", "deg", 1},
-               {std::string(to_string(sweep.requirement.figure)), std::string(to_string(sweep.requirement.figure)), "", 3}};
+  t.columns = front_layout_columns(sweep);
+  t.columns.push_back(
+      {std::string(to_string(sweep.requirement.figure)), std::string(to_string(sweep.requirement.figure)), "", 3});
   for (CostFigure c : sweep.costs) t.columns.push_back(cost_column(c));
   if (with_meets) t.columns.push_back({"meets_requirement", "meets requirement", "", 0});
   for (size_t i : members) {
     const Layout& l = set.layouts[sums[i].layout];
-    std::vector<Cell> r = {static_cast<long>(l.index), walker_label(l), l.altitude_km, l.inclination_deg,
-                           l.ltan ? Cell(l.ltan->text) : Cell(), l.min_elevation_deg, sums[i].figure};
+    std::vector<Cell> r = front_layout_cells(sweep, l);
+    r.emplace_back(sums[i].figure);
     for (size_t k = 0; k < sweep.costs.size(); ++k) {
-      if (sweep.costs[k] == CostFigure::satellites)
+      if (sweep.costs[k] == CostFigure::satellites || sweep.costs[k] == CostFigure::planes)
         r.emplace_back(static_cast<long>(sums[i].costs[k]));
       else
         r.emplace_back(sums[i].costs[k]);
@@ -99,7 +100,8 @@ Table front_table(const Sweep& sweep, const LayoutSet& set, const std::vector<Ro
 SweepOutputs assemble_outputs(const Sweep& sweep, const LayoutSet& set, const std::map<size_t, std::string>& rows) {
   assert(rows.size() == set.layouts.size());
   const std::vector<Column> cols = sweep_columns(sweep);
-  const std::string shell = sweep.base.shells[sweep.shell_index].name;
+  std::string shell;
+  for (const ShellAxes& a : sweep.axes.shells) shell += (shell.empty() ? "" : ", ") + sweep.base.shells[a.shell_index].name;
   SweepOutputs out;
   out.summary.layouts = set.layouts.size();
   out.summary.skipped = set.skipped;
@@ -139,7 +141,7 @@ SweepOutputs assemble_outputs(const Sweep& sweep, const LayoutSet& set, const st
   for (size_t i : best) on_best[i] = true;
   for (size_t i : trade) on_trade[i] = true;
 
-  out.results.title = fmt::format("Sweep {}: layouts of shell {}", sweep.name, shell);
+  out.results.title = fmt::format("Sweep {}: layouts of shell{} {}", sweep.name, sweep.axes.shells.size() > 1 ? "s" : "", shell);
   out.results.columns = cols;
   out.results.columns.push_back({"best_front", "best front", "", 0});
   out.results.columns.push_back({"trade_front", "trade front", "", 0});

@@ -150,27 +150,18 @@ std::string format_ltan(double hours) {
   return fmt::format("{:02d}:{:02d}", minutes / 60, minutes % 60);
 }
 
-SweepAxes read_axes(const MapReader& root, const Sweep& sw) {
-  const Shell& shell = sw.base.shells[sw.shell_index];
-  const double re = sw.base.earth.radius_km;
-  SweepAxes ax;
-  if (!root.has("axes")) root.fail(root.self(), root.path(), "missing key axes; expected the axes to vary, e.g. satellites, planes");
-  const MapReader m = root.map("axes", {"satellites", "planes", "phasing", "altitude_km", "inclination_deg", "ltan",
-                                        "min_elevation_deg"});
+constexpr std::string_view shell_axis_keys[] = {"satellites", "planes", "phasing", "pattern", "altitude_km",
+                                                "inclination_deg", "ltan"};
+
+// The axes of one shell, read from `m` (the axes block in the single-shell form, or one entry of axes.shells).
+ShellAxes read_shell_axes(const MapReader& m, const Design& base, size_t shell_index) {
+  const Shell& shell = base.shells[shell_index];
+  const double re = base.earth.radius_km;
+  ShellAxes ax;
+  ax.shell_index = shell_index;
   ax.satellites = m.has("satellites")
                       ? to_ints(read_number_axis(m, "satellites", 1, 100000, "a satellite count T from 1 to 100000", true))
                       : std::vector<int>{shell.satellites};
-  if (m.has("satellites")) {
-    // The design's satellite cap holds for every layout: the varied shell's T plus the other shells.
-    long others = 0;
-    for (size_t s = 0; s < sw.base.shells.size(); ++s)
-      if (s != sw.shell_index) others += sw.base.shells[s].satellites;
-    for (int t : ax.satellites)
-      if (t + others > max_design_satellites)
-        m.fail_key("satellites", fmt::format("T = {} with the {} satellites of the other shells makes {} satellites; "
-                                             "expected at most {} in the whole design for every layout",
-                                             t, others, t + others, max_design_satellites));
-  }
   ax.planes = m.has("planes") ? to_ints(read_number_axis(m, "planes", 1, 100000, "a plane count P from 1 to 100000", true))
                               : std::vector<int>{shell.planes};
   if (m.has("phasing")) {
@@ -182,6 +173,29 @@ SweepAxes read_axes(const MapReader& root, const Sweep& sw) {
     }
   } else {
     ax.phasing = std::vector<int>{shell.phasing};
+  }
+  if (m.has("pattern")) {
+    ax.pattern_given = true;
+    const YAML::Node n = m.node("pattern");
+    std::vector<std::pair<YAML::Node, std::string>> items;
+    if (n.IsSequence()) {
+      for (size_t i = 0; i < n.size(); ++i) items.emplace_back(n[i], fmt::format("{}[{}]", m.path_of("pattern"), i));
+    } else {
+      items.emplace_back(n, m.path_of("pattern"));
+    }
+    if (items.empty()) m.fail_key("pattern", "the axis expands to no values; expected walker-delta and/or walker-star");
+    for (const auto& [item, p] : items) {
+      const std::string text = item.IsScalar() ? item.Scalar() : std::string();
+      const auto k = pattern_kind_from_string(text);
+      if (!k || *k == PatternKind::explicit_planes)
+        yaml::fail_at(m.file(), item, p, fmt::format("{} is not a Walker pattern; expected walker-delta or walker-star",
+                                                     yaml::quote_for_message(text)));
+      if (std::find(ax.patterns.begin(), ax.patterns.end(), *k) != ax.patterns.end())
+        yaml::fail_at(m.file(), item, p, fmt::format("{} appears twice; expected each pattern once", text));
+      ax.patterns.push_back(*k);
+    }
+  } else {
+    ax.patterns = {shell.pattern};
   }
   if (m.has("altitude_km")) {
     ax.altitude_km = read_number_axis(m, "altitude_km", -re, max_altitude_km, "an altitude in km", false);
@@ -214,19 +228,156 @@ SweepAxes read_axes(const MapReader& root, const Sweep& sw) {
                          shell.name));
     ax.ltans = {{format_ltan(*shell.ltan_h), *shell.ltan_h}};
   }
+  return ax;
+}
+
+// The index of the shell named by `key` of `m`, with a file:line:column error for an unknown or explicit shell.
+size_t named_shell(const MapReader& m, std::string_view key, const Design& base) {
+  const std::string shell = m.string(key, "the name of a shell of the base design to vary");
+  auto it = std::find_if(base.shells.begin(), base.shells.end(), [&](const Shell& s) { return s.name == shell; });
+  if (it == base.shells.end()) {
+    std::vector<std::string_view> names;
+    for (const auto& s : base.shells) names.push_back(s.name);
+    m.fail_key(key, fmt::format("the base design has no shell {}; expected one of its shells{}",
+                                yaml::quote_for_message(shell),
+                                yaml::closest_match(shell, names).empty()
+                                    ? std::string()
+                                    : " (did you mean \"" + yaml::closest_match(shell, names) + "\"?)"));
+  }
+  if (it->pattern == PatternKind::explicit_planes)
+    m.fail_key(key, fmt::format("the varied shell {} is an explicit shell; expected a walker-delta or walker-star shell",
+                                it->name));
+  return static_cast<size_t>(it - base.shells.begin());
+}
+
+std::vector<SolarLevel> read_solar_axis(const MapReader& m) {
+  const YAML::Node n = m.node("solar_activity");
+  std::vector<std::pair<YAML::Node, std::string>> items;
+  if (n.IsSequence()) {
+    for (size_t i = 0; i < n.size(); ++i) items.emplace_back(n[i], fmt::format("{}[{}]", m.path_of("solar_activity"), i));
+  } else {
+    items.emplace_back(n, m.path_of("solar_activity"));
+  }
+  if (items.empty()) m.fail_key("solar_activity", "the axis expands to no values; expected low, mean, high or cycle");
+  std::vector<SolarLevel> out;
+  for (const auto& [item, p] : items) {
+    const std::string text = item.IsScalar() ? item.Scalar() : std::string();
+    const auto l = solar_level_from_string(text);
+    if (!l)
+      yaml::fail_at(m.file(), item, p, fmt::format("{} is not a solar activity level; expected low, mean, high or cycle",
+                                                   yaml::quote_for_message(text)));
+    if (std::find(out.begin(), out.end(), *l) != out.end())
+      yaml::fail_at(m.file(), item, p, fmt::format("{} appears twice; expected each level once", text));
+    out.push_back(*l);
+  }
+  return out;
+}
+
+// The axes in either form: per-shell keys directly under axes (the shell named by the top-level `shell`, or the
+// first shell), or axes.shells, a list of blocks that each name their shell. Sets sw.shell_index to the first
+// varied shell.
+SweepAxes read_axes(const MapReader& root, Sweep& sw) {
+  const Design& base = sw.base;
+  SweepAxes ax;
+  if (!root.has("axes")) root.fail(root.self(), root.path(), "missing key axes; expected the axes to vary, e.g. satellites, planes");
+  std::vector<std::string_view> keys = {"shells", "min_elevation_deg", "nadir_half_angle_deg", "drag_area_m2",
+                                        "dry_mass_kg", "mission_life_years", "solar_activity"};
+  keys.insert(keys.end(), std::begin(shell_axis_keys), std::end(shell_axis_keys));
+  const MapReader m = root.map("axes", keys);
+  std::vector<MapReader> blocks;  // where each shell's axes were read (for the satellite cap message)
+  if (m.has("shells")) {
+    if (root.has("shell"))
+      root.fail_key("shell", "shell names the one varied shell of the single-shell form, but axes.shells is given; "
+                             "expected the shell named in each entry of axes.shells instead");
+    for (std::string_view k : shell_axis_keys)
+      if (m.has(k))
+        m.fail_key(k, fmt::format("{} varies one shell, but axes.shells is given; expected it inside the entry of "
+                                  "axes.shells that names its shell",
+                                  k));
+    const auto items = m.sequence("shells");
+    std::set<size_t> seen;
+    for (size_t i = 0; i < items.size(); ++i) {
+      std::vector<std::string_view> entry_keys = {"shell"};
+      entry_keys.insert(entry_keys.end(), std::begin(shell_axis_keys), std::end(shell_axis_keys));
+      const MapReader e(m.file(), items[i], fmt::format("{}[{}]", m.path_of("shells"), i), entry_keys);
+      if (!e.has("shell"))
+        e.fail(e.self(), e.path(), "missing key shell; expected the name of the shell these axes vary");
+      const size_t index = named_shell(e, "shell", base);
+      if (!seen.insert(index).second)
+        e.fail_key("shell", fmt::format("shell {} is named by two entries; expected each shell once, with all its axes "
+                                        "in one entry",
+                                        base.shells[index].name));
+      ax.shells.push_back(read_shell_axes(e, base, index));
+      blocks.push_back(e);
+    }
+  } else {
+    size_t index = 0;
+    if (root.has("shell")) index = named_shell(root, "shell", base);
+    else if (base.shells[0].pattern == PatternKind::explicit_planes)
+      root.fail(root.self(), root.path(),
+                fmt::format("the varied shell {} is an explicit shell; expected a walker-delta or walker-star shell",
+                            base.shells[0].name));
+    ax.shells.push_back(read_shell_axes(m, base, index));
+    blocks.push_back(m);
+  }
+  sw.shell_index = ax.shells.front().shell_index;
+  // The design's satellite cap holds for every layout: each varied shell's T with the other shells at their
+  // largest (a varied shell at its largest T, the others as in the base design).
+  std::vector<long> largest(base.shells.size());
+  for (size_t s = 0; s < base.shells.size(); ++s) largest[s] = base.shells[s].satellites;
+  for (const ShellAxes& sa : ax.shells)
+    largest[sa.shell_index] = *std::max_element(sa.satellites.begin(), sa.satellites.end());
+  for (size_t k = 0; k < ax.shells.size(); ++k) {
+    if (!blocks[k].has("satellites")) continue;
+    long others = 0;
+    for (size_t s = 0; s < base.shells.size(); ++s)
+      if (s != ax.shells[k].shell_index) others += largest[s];
+    for (int t : ax.shells[k].satellites)
+      if (t + others > max_design_satellites)
+        blocks[k].fail_key("satellites", fmt::format("T = {} with the {} satellites of the other shells makes {} "
+                                                     "satellites; expected at most {} in the whole design for every layout",
+                                                     t, others, t + others, max_design_satellites));
+  }
   ax.min_elevation_deg = m.has("min_elevation_deg")
                              ? read_number_axis(m, "min_elevation_deg", 0.0, 89.0, "an elevation mask in degrees (0 to 89)", false)
-                             : std::vector<double>{sw.base.coverage.min_elevation_deg};
+                             : std::vector<double>{base.coverage.min_elevation_deg};
+  ax.nadir_given = m.has("nadir_half_angle_deg");
+  if (ax.nadir_given) {
+    for (double v : read_number_axis(m, "nadir_half_angle_deg", 0.1, 90.0,
+                                     "a payload cone half-angle from nadir in degrees (0.1 to 90)", false))
+      ax.nadir_half_angle_deg.emplace_back(v);
+  } else {
+    ax.nadir_half_angle_deg = {base.coverage.nadir_half_angle_deg};
+  }
+  ax.drag_area_given = m.has("drag_area_m2");
+  ax.drag_area_m2 = ax.drag_area_given ? read_number_axis(m, "drag_area_m2", 1e-4, 1e4,
+                                                          "a drag reference area in m^2 (1e-4 to 1e4)", false)
+                                       : std::vector<double>{base.spacecraft.drag_area_m2};
+  ax.dry_mass_given = m.has("dry_mass_kg");
+  ax.dry_mass_kg = ax.dry_mass_given ? read_number_axis(m, "dry_mass_kg", 0.01, 1e6, "a dry mass in kg (0.01 to 1e6)", false)
+                                     : std::vector<double>{base.spacecraft.dry_mass_kg};
+  ax.mission_life_given = m.has("mission_life_years");
+  ax.mission_life_years = ax.mission_life_given ? read_number_axis(m, "mission_life_years", 0.01, 100.0,
+                                                                   "a mission life in years (0.01 to 100)", false)
+                                                : std::vector<double>{base.budget.mission_life_years};
+  ax.solar_given = m.has("solar_activity");
+  ax.solar_activity = ax.solar_given ? read_solar_axis(m) : std::vector<SolarLevel>{base.budget.solar};
   return ax;
 }
 
 Requirement read_requirement(const MapReader& root, const Sweep& sw) {
   const Design& base = sw.base;
-  // The most satellites a layout can hold: the other shells' satellites plus the largest T of the axis.
-  const int largest_t = *std::max_element(sw.axes.satellites.begin(), sw.axes.satellites.end());
-  int others = 0;
+  // The most satellites a layout can hold: the largest T of each varied shell plus the other shells' satellites.
+  int largest_t = 0, others = 0;
+  std::string varied;
+  std::vector<bool> is_varied(base.shells.size(), false);
+  for (const ShellAxes& sa : sw.axes.shells) {
+    largest_t += *std::max_element(sa.satellites.begin(), sa.satellites.end());
+    is_varied[sa.shell_index] = true;
+    varied += (varied.empty() ? "" : ", ") + base.shells[sa.shell_index].name;
+  }
   for (size_t s = 0; s < base.shells.size(); ++s)
-    if (s != sw.shell_index) others += base.shells[s].satellites;
+    if (!is_varied[s]) others += base.shells[s].satellites;
   if (!root.has("requirement"))
     root.fail(root.self(), root.path(), "missing key requirement; expected e.g. requirement: {min_percent_covered: 90}");
   const MapReader m = root.map("requirement", {"fold", "min_percent_covered", "min_worst_instant_percent", "max_gap_s",
@@ -236,9 +387,9 @@ Requirement read_requirement(const MapReader& root, const Sweep& sw) {
   // Layouts whose own count is below the fold are skipped and counted; a fold above every layout's count
   // leaves nothing to evaluate, and is said here, at the fold, rather than as "no valid layout".
   if (r.fold > largest_t + others)
-    m.fail_key("fold", fmt::format("fold {} is larger than any layout's satellite count (at most {}: {} in shell {} "
+    m.fail_key("fold", fmt::format("fold {} is larger than any layout's satellite count (at most {}: {} in shell{} {} "
                                    "and {} in the other shells); expected a fold from 1 to {}",
-                                   r.fold, largest_t + others, largest_t, base.shells[sw.shell_index].name, others,
+                                   r.fold, largest_t + others, largest_t, sw.axes.shells.size() > 1 ? "s" : "", varied, others,
                                    largest_t + others));
   struct Key {
     const char* key;
@@ -284,7 +435,7 @@ std::vector<CostFigure> read_costs(const MapReader& root, const Design& base) {
     if (!c)
       yaml::fail_at(root.file(), items[i], p,
                     fmt::format("{} is not a cost figure; expected satellites, fleet_dv_m_s, fleet_propellant_kg, "
-                                "dv_per_satellite_m_s or propellant_per_satellite_kg",
+                                "dv_per_satellite_m_s, propellant_per_satellite_kg or planes",
                                 yaml::quote_for_message(text)));
     if (std::find(out.begin(), out.end(), *c) != out.end())
       yaml::fail_at(root.file(), items[i], p, fmt::format("{} appears twice; expected each cost once", text));
@@ -315,24 +466,6 @@ Sweep read_sweep(const YAML::Node& node, const std::string& file, const std::str
                                       "to the sweep file",
                                       yaml::quote_for_message(sw.base_file)));
   sw.base = read_design_file(sw.base_file);
-  if (root.has("shell")) {
-    const std::string shell = root.string("shell", "the name of the shell to vary");
-    auto it = std::find_if(sw.base.shells.begin(), sw.base.shells.end(), [&](const Shell& s) { return s.name == shell; });
-    if (it == sw.base.shells.end()) {
-      std::vector<std::string_view> names;
-      for (const auto& s : sw.base.shells) names.push_back(s.name);
-      root.fail_key("shell", fmt::format("the base design has no shell {}; expected one of its shells{}",
-                                         yaml::quote_for_message(shell),
-                                         yaml::closest_match(shell, names).empty()
-                                             ? std::string()
-                                             : " (did you mean \"" + yaml::closest_match(shell, names) + "\"?)"));
-    }
-    sw.shell_index = static_cast<size_t>(it - sw.base.shells.begin());
-  }
-  if (sw.base.shells[sw.shell_index].pattern == PatternKind::explicit_planes)
-    root.fail(root.self(), root.path(),
-              fmt::format("the varied shell {} is an explicit shell; expected a walker-delta or walker-star shell",
-                          sw.base.shells[sw.shell_index].name));
   if (root.has("coverage")) sw.base.coverage = read_coverage_spec(root);
   sw.axes = read_axes(root, sw);
   sw.axes_location = yaml::location(file, root.node("axes").Mark());
@@ -377,13 +510,14 @@ std::string_view to_string(CostFigure c) {
     case CostFigure::fleet_propellant_kg: return "fleet_propellant_kg";
     case CostFigure::dv_per_satellite_m_s: return "dv_per_satellite_m_s";
     case CostFigure::propellant_per_satellite_kg: return "propellant_per_satellite_kg";
+    case CostFigure::planes: return "planes";
   }
   return "?";
 }
 
 std::optional<CostFigure> cost_figure_from_string(std::string_view text) {
   for (CostFigure c : {CostFigure::satellites, CostFigure::fleet_dv_m_s, CostFigure::fleet_propellant_kg,
-                       CostFigure::dv_per_satellite_m_s, CostFigure::propellant_per_satellite_kg})
+                       CostFigure::dv_per_satellite_m_s, CostFigure::propellant_per_satellite_kg, CostFigure::planes})
     if (to_string(c) == text) return c;
   return std::nullopt;
 }
