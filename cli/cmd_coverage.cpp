@@ -96,7 +96,13 @@ void add_coverage_command(CLI::App& app) {
     const auto threads = limit_threads(opt->threads);
     std::atomic<std::int64_t> done{0};
     CoverageResult result;
-    const CoveragePlan plan = plan_coverage(design, options);  // settings, guard and grid, once
+    const CoveragePlan plan = naming_flags(
+        {{"coverage.grid.spacing_deg", "--spacing", opt->spacing.has_value()},
+         {"coverage.span_h", "--span", opt->span_h.has_value()},
+         {"coverage.step_s", "--step", opt->step.has_value()},
+         {"coverage.min_elevation_deg", "--elevation", opt->elevation.has_value()},
+         {"coverage.max_fold", "--fold", opt->fold.has_value()}},
+        [&] { return plan_coverage(design, options); });  // settings, guard and grid, once
     if (isatty(STDERR_FILENO)) {
       options.progress = &done;
       ProgressLine line(done, std::max(1.0, plan.estimate.point_steps));
@@ -110,46 +116,11 @@ void add_coverage_command(CLI::App& app) {
     if (!opt->points_file.empty()) write_file_atomic(opt->points_file, render_csv(coverage_point_table(result)));
     const OutputFormat f = format_of(opt->format);
     if (f == OutputFormat::json) {
-      nlohmann::ordered_json j;
-      const CoverageAggregate& a = result.total;
-      j["design"] = result.design;
-      j["grid"] = std::string(to_string(result.grid));
-      j["spacing_deg"] = result.spacing_deg;
-      j["grid_points"] = result.points.size();
-      j["satellites"] = result.satellites;
-      j["span_s"] = result.span_s;
-      j["step_s"] = result.step_s;
-      j["min_elevation_deg"] = result.min_elevation_deg;
-      j["nadir_half_angle_deg"] = result.nadir_half_angle_deg ? nlohmann::ordered_json(*result.nadir_half_angle_deg)
-                                                              : nlohmann::ordered_json(nullptr);
-      j["max_fold"] = result.max_fold;
-      j["mode"] = std::string(to_string(result.mode));
-      j["percent_covered"] = a.percent_by_fold.at(0);
-      j["percent_covered_by_fold"] = a.percent_by_fold;
-      j["max_gap_s"] = a.max_gap_s;
-      j["mean_gap_s"] = a.mean_gap_s;
-      j["p95_gap_s"] = a.p95_gap_s;
-      j["gap_count"] = a.gap_count;
-      j["mean_response_time_s"] = a.mean_response_time_s;
-      j["mean_in_view"] = a.mean_in_view;
-      j["max_in_view"] = a.max_in_view;
-      j["required_radius_deg"] = result.required_radius_deg;
-      j["worst_instant_covered_percent_by_fold"] = result.worst_instant_covered_percent;
-      j["latitude_bands"] = rows_to_json(bands);
-      j["in_view_distribution"] = rows_to_json(in_view_distribution_table(result));
-      j["gap_quantiles_s"] = result.gap_quantiles_s;
-      j["passes_between_instants"] = result.hidden_passes;
-      j["path_error_bound_m"] = result.path_error_bound_m;
-      j["pair_tests"] = result.pair_tests;
-      j["point_steps"] = result.point_steps;
-      print_stdout(j.dump(2) + "\n");
+      print_stdout(coverage_json(result).dump(2) + "\n");
     } else if (f == OutputFormat::csv) {
       print_stdout(render_csv(bands));
     } else {
-      print_stdout(render_text(overview) + "\n" +
-                   fmt::format("Passes shorter than the step, found between sample instants: {} (satellite path between "
-                               "instants good to {:.2g} m)\n\n",
-                               result.hidden_passes, result.path_error_bound_m) +
+      print_stdout(render_text(overview) + "\n" + coverage_between_instants_note(result) + "\n\n" +
                    render_text(folds) + "\n" + render_text(bands) + "\n" + render_text(in_view_distribution_table(result)));
     }
     print_caution();

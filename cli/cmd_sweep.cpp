@@ -234,7 +234,7 @@ void run(const Options& opt) {
     set = expand_layouts(sweep, opt.force ? hard_max_layouts : default_max_layouts);
     estimate_s = estimate_sweep_seconds(sweep, set, eval);
   } catch (const InputError&) {
-    if (rank != 0) throw CLI::RuntimeError(2);  // rank 0 reports it
+    if (rank != 0) throw ReportedElsewhere{};  // rank 0 reports it
     throw;
   }
   const std::string dir = out_dir(opt);
@@ -260,7 +260,7 @@ void run(const Options& opt) {
 #endif
   if (status.rfind("ok", 0) != 0) {
     if (setup_error) std::rethrow_exception(setup_error);
-    throw CLI::RuntimeError(2);
+    throw ReportedElsewhere{};  // rank 0 reports it
   }
   std::vector<size_t> pending;
   for (size_t i = 0; i < set.layouts.size(); ++i)

@@ -6,8 +6,10 @@
 #include <memory>
 #include <optional>
 #include <string>
+#include <vector>
 
 #include "skein/atmosphere/solar_activity.hpp"
+#include "skein/error.hpp"
 
 #include "skein/report/table.hpp"
 
@@ -35,6 +37,33 @@ void print_stderr(const std::string& text);
 // Writes the usual caution (skein::caution_text) to standard error; every command that computes figures ends
 // with it.
 void print_caution();
+
+// Library errors name the design field ("coverage.step_s = 0 s: ..."). Where a value came from a flag, the
+// command says which: run f, and when it throws an InputError whose message starts with one of the given
+// fields, throw it again prefixed with that field's flag ("--step: coverage.step_s = 0 s: ...").
+// Thrown by a command whose error was already reported elsewhere (an MPI rank other than 0 when rank 0 prints
+// the message): main() ends with the exit status of that kind of error, printing nothing. Exit statuses are
+// decided in main() only: 1 usage, 2 bad input, 3 internal.
+struct ReportedElsewhere {
+  bool bad_input = true;
+};
+
+struct FlagField {
+  std::string field;  // e.g. "coverage.step_s"
+  std::string flag;   // e.g. "--step"
+  bool given = false; // the flag was on the command line
+};
+template <class F>
+auto naming_flags(const std::vector<FlagField>& fields, F&& f) -> decltype(f()) {
+  try {
+    return f();
+  } catch (const InputError& e) {
+    const std::string m = e.what();
+    for (const FlagField& ff : fields)
+      if (ff.given && m.rfind(ff.field, 0) == 0) throw InputError(ff.flag + ": " + m);
+    throw;
+  }
+}
 
 void add_check_command(CLI::App& app);
 void add_drift_command(CLI::App& app);

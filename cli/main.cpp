@@ -79,6 +79,8 @@ int main(int argc, char** argv) {
   } catch (const skein::InputError& e) {
     std::cerr << "skein: error: " << e.what() << "\n";
     return 2;
+  } catch (const skein::cli::ReportedElsewhere& e) {
+    return e.bad_input ? 2 : 3;
   } catch (const std::exception& e) {
     std::cerr << "skein: internal error: " << e.what() << "\n";
     return 3;

@@ -80,7 +80,7 @@ TEST_CASE("coverage spec: bad input is refused before any work, with its positio
         std::string::npos);
   CoverageOptions o;
   o.step_s = 0.0;
-  CHECK(error_of("", o).find("--step (s) 0 is not positive") != std::string::npos);
+  CHECK(error_of("", o).find("coverage.step_s = 0 s: expected a step above zero") != std::string::npos);
   CoverageOptions fold;
   fold.max_fold = 9;
   CHECK(error_of("", fold).find("only 6 satellites") != std::string::npos);

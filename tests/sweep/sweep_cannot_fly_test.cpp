@@ -30,7 +30,7 @@ TEST_CASE("sweep: a layout at 180 km is cannot-fly and never meets; 540 km is ok
     return size_t{0};
   };
   for (const Layout& l : set.layouts) {
-    CAPTURE(l.altitude_km);
+    CAPTURE(l.shells.front().altitude_km);
     const LayoutMetrics m = evaluate_layout(sweep, l);
     REQUIRE(m.evaluated);
     // Brute force: the budget of the layout's design, shell by shell.
@@ -42,7 +42,7 @@ TEST_CASE("sweep: a layout at 180 km is cannot-fly and never meets; 540 km is ok
     const std::string status = std::get<std::string>(row.at(col("status")));
     const RowSummary summary = summarize_row(sweep, row);
     CHECK(summary.evaluated);
-    if (l.altitude_km < 200.0) {
+    if (l.shells.front().altitude_km < 200.0) {
       CHECK(!flyable);
       CHECK(status == "cannot-fly");
       CHECK(!m.meets);

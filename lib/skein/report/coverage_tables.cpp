@@ -124,4 +124,46 @@ Table gap_distribution_table(const CoverageResult& r) {
   return t;
 }
 
+nlohmann::ordered_json coverage_json(const CoverageResult& result) {
+  nlohmann::ordered_json j;
+  const CoverageAggregate& a = result.total;
+  j["design"] = result.design;
+  j["grid"] = std::string(to_string(result.grid));
+  j["spacing_deg"] = result.spacing_deg;
+  j["grid_points"] = result.points.size();
+  j["satellites"] = result.satellites;
+  j["span_s"] = result.span_s;
+  j["step_s"] = result.step_s;
+  j["min_elevation_deg"] = result.min_elevation_deg;
+  j["nadir_half_angle_deg"] = result.nadir_half_angle_deg ? nlohmann::ordered_json(*result.nadir_half_angle_deg)
+                                                          : nlohmann::ordered_json(nullptr);
+  j["max_fold"] = result.max_fold;
+  j["mode"] = std::string(to_string(result.mode));
+  j["percent_covered"] = a.percent_by_fold.at(0);
+  j["percent_covered_by_fold"] = a.percent_by_fold;
+  j["max_gap_s"] = a.max_gap_s;
+  j["mean_gap_s"] = a.mean_gap_s;
+  j["p95_gap_s"] = a.p95_gap_s;
+  j["gap_count"] = a.gap_count;
+  j["mean_response_time_s"] = a.mean_response_time_s;
+  j["mean_in_view"] = a.mean_in_view;
+  j["max_in_view"] = a.max_in_view;
+  j["required_radius_deg"] = result.required_radius_deg;
+  j["worst_instant_covered_percent_by_fold"] = result.worst_instant_covered_percent;
+  j["latitude_bands"] = rows_to_json(coverage_band_table(result));
+  j["in_view_distribution"] = rows_to_json(in_view_distribution_table(result));
+  j["gap_quantiles_s"] = result.gap_quantiles_s;
+  j["passes_between_instants"] = result.hidden_passes;
+  j["path_error_bound_m"] = result.path_error_bound_m;
+  j["pair_tests"] = result.pair_tests;
+  j["point_steps"] = result.point_steps;
+  return j;
+}
+
+std::string coverage_between_instants_note(const CoverageResult& result) {
+  return fmt::format("Passes shorter than the step, found between sample instants: {} (satellite path between "
+                     "instants good to {:.2g} m)",
+                     result.hidden_passes, result.path_error_bound_m);
+}
+
 }  // namespace skein

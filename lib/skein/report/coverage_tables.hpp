@@ -22,4 +22,10 @@ Table in_view_distribution_table(const CoverageResult& r);
 // Quantiles 0..100 % of the pooled, area-weighted revisit-gap distribution (a CDF).
 Table gap_distribution_table(const CoverageResult& r);
 
+// The whole coverage result as the JSON `skein coverage --format json` prints (keys in a fixed order).
+nlohmann::ordered_json coverage_json(const CoverageResult& result);
+
+// One line on the passes found between sample instants and the path error bound behind them.
+std::string coverage_between_instants_note(const CoverageResult& result);
+
 }  // namespace skein

@@ -31,9 +31,6 @@ double visibility_cull_rad(double r_km, double min_ground_radius_km, const Cover
 }
 
 
-void check_positive(double v, const char* what) {
-  if (!(v > 0.0)) throw InputError(fmt::format("{} {} is not positive; expected a value above zero", what, v));
-}
 
 
 
@@ -105,41 +102,44 @@ CoverageSettings resolve_coverage_settings(const Design& design, const CoverageO
   st.spec = design.coverage;
   CoverageSpec& s = st.spec;
   if (o.spacing_deg) {
-    if (s.grid == GridKind::sites) throw InputError("--spacing does not apply to a grid of sites");
+    if (s.grid == GridKind::sites) throw InputError("coverage.grid.spacing_deg: an override does not apply to a grid of sites");
     const double v = *o.spacing_deg;
     const double n = 180.0 / v;
     if (!(v >= 0.01 && v <= 30.0) || std::abs(n - std::round(n)) > 1e-9)
-      throw InputError(fmt::format("--spacing {}: expected a cell size from 0.01 to 30 deg that divides 180 deg", v));
+      throw InputError(fmt::format("coverage.grid.spacing_deg = {} deg: expected a cell size from 0.01 to 30 deg that divides 180 deg", v));
     if (s.grid == GridKind::band) {
       const double nb = (s.band_lat_max_deg - s.band_lat_min_deg) / v;
       if (std::abs(nb - std::round(nb)) > 1e-9)
-        throw InputError(fmt::format("--spacing {}: the band {} to {} deg is not a whole number of cells", v,
+        throw InputError(fmt::format("coverage.grid.spacing_deg = {} deg: the band {} to {} deg is not a whole number of cells", v,
                                      s.band_lat_min_deg, s.band_lat_max_deg));
     }
     s.spacing_deg = v;
   }
   if (o.span_s) {
-    check_positive(*o.span_s, "--span (h)");
-    if (*o.span_s > 366.0 * 86400.0) throw InputError("--span: expected at most a year (8784 h)");
+    if (!(*o.span_s > 0.0))
+      throw InputError(fmt::format("coverage.span_h = {} h: expected a span above zero", *o.span_s / 3600.0));
+    if (*o.span_s > 366.0 * 86400.0)
+      throw InputError(fmt::format("coverage.span_h = {} h: expected at most a year (8784 h)", *o.span_s / 3600.0));
     s.span_s = *o.span_s;
   }
   if (o.step_s) {
-    check_positive(*o.step_s, "--step (s)");
+    if (!(*o.step_s > 0.0))
+      throw InputError(fmt::format("coverage.step_s = {} s: expected a step above zero, e.g. 30", *o.step_s));
     s.step_s = *o.step_s;
   }
   if (!(s.step_s > 0.0)) throw InputError("coverage.step_s: the step must be above zero");
   if (s.step_s > s.span_s)
-    throw InputError(fmt::format("the step {} s is longer than the span {} s; expected step <= span", s.step_s, s.span_s));
+    throw InputError(fmt::format("coverage.step_s = {} s is longer than the span ({} h); expected step <= span", s.step_s, s.span_s / 3600.0));
   if (o.min_elevation_deg) {
     if (!(*o.min_elevation_deg >= 0.0 && *o.min_elevation_deg <= 89.0))
-      throw InputError(fmt::format("--elevation {}: expected an elevation mask from 0 to 89 deg", *o.min_elevation_deg));
+      throw InputError(fmt::format("coverage.min_elevation_deg = {} deg: expected an elevation mask from 0 to 89 deg", *o.min_elevation_deg));
     s.min_elevation_deg = *o.min_elevation_deg;
   }
   st.satellites = static_cast<int>(expand_constellation(design).size());
   if (o.max_fold) {
-    if (*o.max_fold < 1 || *o.max_fold > max_fold_limit) throw InputError(fmt::format("--fold {}: expected 1 to {}", *o.max_fold, max_fold_limit));
+    if (*o.max_fold < 1 || *o.max_fold > max_fold_limit) throw InputError(fmt::format("coverage.max_fold = {}: expected 1 to {}", *o.max_fold, max_fold_limit));
     if (*o.max_fold > st.satellites)
-      throw InputError(fmt::format("--fold {}: the design has only {} satellites; expected a fold of at most {}",
+      throw InputError(fmt::format("coverage.max_fold = {}: the design has only {} satellites; expected a fold of at most {}",
                                    *o.max_fold, st.satellites, st.satellites));
     st.max_fold = *o.max_fold;
   } else if (s.max_fold) {
