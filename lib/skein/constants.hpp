@@ -71,4 +71,11 @@ std::optional<EarthModel> earth_model_from_string(std::string_view name);
 // practice) an orbit decays within a revolution and the secular model means nothing.
 inline constexpr double minimum_perigee_altitude_km = 100.0;
 
+// Limits of the input, one place for every reader and check (common practice for a desktop trade study; each
+// message names the limit it enforces).
+inline constexpr long max_design_satellites = 100000;       // in one shell and in a whole design (and sweep layout)
+inline constexpr long max_design_shells = 1000;             // shells in one design
+inline constexpr double max_semi_major_axis_km = 500000.0;  // beyond the Moon's distance the J2 model is meaningless
+inline constexpr int max_fold_limit = 16;                   // the largest coverage fold K
+
 }  // namespace skein

@@ -6,6 +6,8 @@
 #include <string_view>
 #include <vector>
 
+#include "skein/constants.hpp"
+
 namespace skein {
 
 // The kind of ground grid.
@@ -31,7 +33,6 @@ struct Site {
 };
 
 // The largest fold K accepted, in the YAML block and by --fold (bounds per-point scratch arrays).
-inline constexpr int max_fold_limit = 16;
 
 struct CoverageSpec {
   bool present = false;                 // the design has a coverage block

@@ -16,12 +16,10 @@ namespace {
 
 using yaml::MapReader;
 
-constexpr double max_semi_major_axis_km = 500000.0;  // beyond the Moon's distance the J2 model is meaningless
 // Resource guards (common practice: the largest filed constellations hold a few tens of thousands of
 // satellites in a few dozen shells). They bound what every evaluator expands, and the shell pairs of the
 // differential drift table (shells^2 / 2).
 constexpr long max_satellites = max_design_satellites;  // in one shell and in the whole design
-constexpr size_t max_shells = 1000;
 
 Spacecraft read_spacecraft(const MapReader& root) {
   const MapReader m = root.map("spacecraft", {"dry_mass_kg", "drag_area_m2", "drag_coefficient", "isp_s",
@@ -195,8 +193,8 @@ Design read_design(const YAML::Node& root_node, const std::string& file) {
   }
   d.spacecraft = read_spacecraft(root);
   const auto shells = root.sequence("shells");
-  if (shells.size() > max_shells)
-    root.fail_key("shells", fmt::format("the design has {} shells; expected at most {}", shells.size(), max_shells));
+  if (shells.size() > static_cast<size_t>(max_design_shells))
+    root.fail_key("shells", fmt::format("the design has {} shells; expected at most {}", shells.size(), max_design_shells));
   std::set<std::string> names;
   long total = 0;
   for (size_t s = 0; s < shells.size(); ++s) {

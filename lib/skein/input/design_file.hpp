@@ -8,7 +8,6 @@ namespace skein {
 
 // The most satellites a design may hold (in one shell and in all shells together); sweeps apply it to every
 // layout. Common practice for a desktop tool: the largest constellations filed hold tens of thousands.
-constexpr long max_design_satellites = 100000;
 
 // Read and validate a design file. Throws InputError naming file:line:column, the YAML path, what was
 // wrong and what was expected.

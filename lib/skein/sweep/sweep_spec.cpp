@@ -20,7 +20,6 @@ namespace {
 
 using yaml::MapReader;
 
-constexpr double max_altitude_km = 400000.0;  // the design reader's bound on a, less an Earth radius
 
 std::string read_whole_file(const std::string& path) { return yaml::read_text_file(path); }
 
@@ -160,9 +159,9 @@ ShellAxes read_shell_axes(const MapReader& m, const Design& base, size_t shell_i
   ShellAxes ax;
   ax.shell_index = shell_index;
   ax.satellites = m.has("satellites")
-                      ? to_ints(read_number_axis(m, "satellites", 1, 100000, "a satellite count T from 1 to 100000", true))
+                      ? to_ints(read_number_axis(m, "satellites", 1, static_cast<double>(max_design_satellites), fmt::format("a satellite count T from 1 to {}", max_design_satellites), true))
                       : std::vector<int>{shell.satellites};
-  ax.planes = m.has("planes") ? to_ints(read_number_axis(m, "planes", 1, 100000, "a plane count P from 1 to 100000", true))
+  ax.planes = m.has("planes") ? to_ints(read_number_axis(m, "planes", 1, static_cast<double>(max_design_satellites), fmt::format("a plane count P from 1 to {}", max_design_satellites), true))
                               : std::vector<int>{shell.planes};
   if (m.has("phasing")) {
     const YAML::Node f = m.node("phasing");
@@ -198,7 +197,7 @@ ShellAxes read_shell_axes(const MapReader& m, const Design& base, size_t shell_i
     ax.patterns = {shell.pattern};
   }
   if (m.has("altitude_km")) {
-    ax.altitude_km = read_number_axis(m, "altitude_km", -re, max_altitude_km, "an altitude in km", false);
+    ax.altitude_km = read_number_axis(m, "altitude_km", -re, max_semi_major_axis_km, "an altitude in km", false);
     for (double alt : ax.altitude_km) {
       const double perigee = (re + alt) * (1.0 - shell.e) - re;
       if (perigee < minimum_perigee_altitude_km)
@@ -383,7 +382,7 @@ Requirement read_requirement(const MapReader& root, const Sweep& sw) {
   const MapReader m = root.map("requirement", {"fold", "min_percent_covered", "min_worst_instant_percent", "max_gap_s",
                                                "max_p95_gap_s", "max_mean_response_time_s", "figure", "within_tank"});
   Requirement r;
-  r.fold = static_cast<int>(m.optional_integer("fold", 1, 16, "a coverage fold k from 1 to 16").value_or(1));
+  r.fold = static_cast<int>(m.optional_integer("fold", 1, max_fold_limit, fmt::format("a coverage fold k from 1 to {}", max_fold_limit)).value_or(1));
   // Layouts whose own count is below the fold are skipped and counted; a fold above every layout's count
   // leaves nothing to evaluate, and is said here, at the fold, rather than as "no valid layout".
   if (r.fold > largest_t + others)
