@@ -40,8 +40,8 @@ BENCHMARK(BM_BudgetOneShell)->Arg(0)->Arg(1)->Unit(benchmark::kMillisecond);
 void BM_NaturalLifetime540(benchmark::State& state) {
   skein::OrbitAtmosphere atm;
   for (auto _ : state)
-    benchmark::DoNotOptimize(skein::natural_lifetime_days(skein::wgs84, atm, 0.0129, skein::wgs84.radius_km + 540.0, 0.0,
-                                                          0.0, 120.0, 73050.0));
+    benchmark::DoNotOptimize(skein::natural_lifetime(skein::wgs84, atm, 0.0129, skein::wgs84.radius_km + 540.0, 0.0,
+                                                     0.0, 120.0, 73050.0).days);
 }
 BENCHMARK(BM_NaturalLifetime540)->Unit(benchmark::kMicrosecond);
 

@@ -147,7 +147,7 @@ TEST_CASE("solar activity orders the lifetimes; the cycle lies between low and h
   OrbitAtmosphere atm;
   auto life = [&](SolarLevel l, double phase) {
     atm.solar = {l, phase};
-    return natural_lifetime_days(earth, atm, 0.01, earth.radius_km + 450.0, 0.0, 0.0, 120.0, 1e5);
+    return natural_lifetime(earth, atm, 0.01, earth.radius_km + 450.0, 0.0, 0.0, 120.0, 1e5).days;
   };
   const double lo = life(SolarLevel::low, 0), mean = life(SolarLevel::mean, 0), hi = life(SolarLevel::high, 0);
   const double cyc = life(SolarLevel::cycle, 0.0);
@@ -169,7 +169,7 @@ TEST_CASE("disposal perigee for a re-entry rule") {
   CHECK(*hp < 650.0);
   auto life = [&](double perigee_km) {
     const double ra = a, rp = earth.radius_km + perigee_km;
-    return natural_lifetime_days(earth, atm, b, 0.5 * (ra + rp), (ra - rp) / (ra + rp), 0.0, 120.0, 3 * rule);
+    return natural_lifetime(earth, atm, b, 0.5 * (ra + rp), (ra - rp) / (ra + rp), 0.0, 120.0, 3 * rule).days;
   };
   CHECK(life(*hp) <= rule);
   CHECK(life(*hp + 0.2) > rule);

@@ -306,10 +306,10 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
         out.disposal_perigee_km = *hp;
         const double a_new = 0.5 * (r_apo + rp), e_new = (r_apo - rp) / (r_apo + rp);
         out.disposal_lifetime_days =
-            natural_lifetime_days(earth, eol, b, a_new, e_new, life_days, reentry_km, rule_days * 2.0);
+            natural_lifetime(earth, eol, b, a_new, e_new, life_days, reentry_km, rule_days * 2.0).days;
       } else {
         out.disposal_lifetime_days =
-            natural_lifetime_days(earth, eol, b, shell.a_km, shell.e, life_days, reentry_km, rule_days);
+            natural_lifetime(earth, eol, b, shell.a_km, shell.e, life_days, reentry_km, rule_days).days;
       }
       out.disposal_burn = hp.has_value();
       disposal_basis =
@@ -368,30 +368,26 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
 
 }  // namespace
 
-double natural_lifetime_days(const EarthModel& earth, const OrbitAtmosphere& atm, double b, double a_km, double e,
-                             double t0_days, double reentry_km, double horizon_days, bool* lower_bound) {
+NaturalLifetime natural_lifetime(const EarthModel& earth, const OrbitAtmosphere& atm, double b, double a_km, double e,
+                                 double t0_days, double reentry_km, double horizon_days) {
   DecayOptions opt;
   opt.reentry_altitude_km = reentry_km;
   opt.horizon_days = horizon_days;
   opt.record = false;
   const DecayResult r = require_decay(integrate_decay(earth, density_of(atm), b, {t0_days, a_km, e}, opt), "orbit");
-  if (lower_bound) *lower_bound = r.stop != DecayStop::reentry;
-  return r.end.t_days - t0_days;
+  return {r.end.t_days - t0_days, r.stop != DecayStop::reentry};
 }
 
 std::optional<double> disposal_perigee_for_rule_km(const EarthModel& earth, const OrbitAtmosphere& atm, double b,
                                                    double a_km, double e, double t0_days, double reentry_km,
                                                    double rule_days) {
-  bool longer = false;
-  natural_lifetime_days(earth, atm, b, a_km, e, t0_days, reentry_km, rule_days, &longer);
-  if (!longer) return std::nullopt;
+  if (!natural_lifetime(earth, atm, b, a_km, e, t0_days, reentry_km, rule_days).lower_bound) return std::nullopt;
   const double r_apo = a_km * (1.0 + e);
   auto outlives = [&](double hp_km) {
     const double rp = earth.radius_km + hp_km;
-    bool lb = false;
-    natural_lifetime_days(earth, atm, b, 0.5 * (r_apo + rp), (r_apo - rp) / (r_apo + rp), t0_days, reentry_km, rule_days,
-                          &lb);
-    return lb;
+    return natural_lifetime(earth, atm, b, 0.5 * (r_apo + rp), (r_apo - rp) / (r_apo + rp), t0_days, reentry_km,
+                            rule_days)
+        .lower_bound;
   };
   double lo = reentry_km, hi = a_km * (1.0 - e) - earth.radius_km;  // lo re-enters at once, hi outlives the rule
   while (hi - lo > 0.05) {

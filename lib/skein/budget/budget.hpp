@@ -98,12 +98,15 @@ struct BudgetResult {
 // or infinity. Budgets that cannot be flown are returned, with ShellBudget::cannot_fly and warnings.
 BudgetResult compute_budget(const Design& design, const BudgetOptions& options = {});
 
-// Natural lifetime (days) of a mean orbit (a, e) for ballistic coefficient b_m2_kg under `atmosphere`,
-// starting t0_days after the epoch; `lower_bound` is set when it outlives horizon_days. Throws InputError
-// when the decay integration fails (DecayStop::failed).
-double natural_lifetime_days(const EarthModel& earth, const OrbitAtmosphere& atmosphere, double b_m2_kg, double a_km,
-                             double e, double t0_days, double reentry_altitude_km, double horizon_days,
-                             bool* lower_bound = nullptr);
+// Natural lifetime of a mean orbit (a, e) for ballistic coefficient b_m2_kg under `atmosphere`, starting t0_days
+// after the epoch: the days to re-entry, or the days to horizon_days with lower_bound set when it outlives the
+// horizon. Throws InputError when the decay integration fails (DecayStop::failed).
+struct NaturalLifetime {
+  double days = 0.0;
+  bool lower_bound = false;  // still in orbit at the horizon: days is a lower bound
+};
+NaturalLifetime natural_lifetime(const EarthModel& earth, const OrbitAtmosphere& atmosphere, double b_m2_kg, double a_km,
+                                 double e, double t0_days, double reentry_altitude_km, double horizon_days);
 
 // The perigee altitude (km) to which a burn at apogee of the orbit (a, e) must lower the perigee so that
 // the orbit re-enters within rule_days (found by bisection to 0.05 km with the decay model); nullopt when
