@@ -11,6 +11,7 @@
 #include <fmt/format.h>
 
 #include "commands.hpp"
+#include "progress.hpp"
 #include "skein/coverage/evaluate.hpp"
 #include "skein/input/design_file.hpp"
 #include "skein/error.hpp"
@@ -21,34 +22,6 @@
 namespace skein::cli {
 namespace {
 
-// Redraws "coverage: NN %" on stderr every half second while the evaluation runs (only on a terminal).
-class ProgressLine {
- public:
-  ProgressLine(std::atomic<std::int64_t>& done, double total) : done_(done), total_(total) {
-    thread_ = std::thread([this] {
-      std::unique_lock<std::mutex> lock(m_);
-      while (!cv_.wait_for(lock, std::chrono::milliseconds(500), [this] { return stop_; }))
-        print_stderr(fmt::format("\rcoverage: {:5.1f} %", 100.0 * static_cast<double>(done_.load()) / total_));
-    });
-  }
-  ~ProgressLine() {
-    {
-      std::lock_guard<std::mutex> lock(m_);
-      stop_ = true;
-    }
-    cv_.notify_all();
-    thread_.join();
-    print_stderr("\r                    \r");
-  }
-
- private:
-  std::atomic<std::int64_t>& done_;
-  double total_;
-  std::mutex m_;
-  std::condition_variable cv_;
-  bool stop_ = false;
-  std::thread thread_;
-};
 
 }  // namespace
 
@@ -105,7 +78,8 @@ void add_coverage_command(CLI::App& app) {
         [&] { return plan_coverage(design, options); });  // settings, guard and grid, once
     if (isatty(STDERR_FILENO)) {
       options.progress = &done;
-      ProgressLine line(done, std::max(1.0, plan.estimate.point_steps));
+      Progress line("coverage", [&done] { return static_cast<double>(done.load()); },
+                    std::max(1.0, plan.estimate.point_steps));
       result = evaluate_coverage(design, plan, options);
     } else {
       result = evaluate_coverage(design, plan, options);

@@ -19,6 +19,8 @@
 #include <fmt/format.h>
 
 #include "commands.hpp"
+#include "progress.hpp"
+#include "skein/io/read_file.hpp"
 #include "skein/error.hpp"
 #include "skein/io/atomic_write.hpp"
 #include "skein/io/folder_write.hpp"
@@ -33,63 +35,11 @@
 namespace skein::cli {
 namespace {
 
-std::string fmt_duration(double s) {
-  if (!(s >= 0.0) || s > 1e8) return "--:--";
-  const long t = static_cast<long>(s + 0.5);
-  return t >= 3600 ? fmt::format("{}:{:02d}:{:02d}", t / 3600, (t / 60) % 60, t % 60)
-                   : fmt::format("{}:{:02d}", t / 60, t % 60);
-}
+// A journal holds one line per layout (a few hundred bytes) for at most hard_max_layouts layouts.
+constexpr std::size_t journal_max_bytes = static_cast<std::size_t>(hard_max_layouts) * 4096;
 
-// A progress bar on stderr (only when stderr is a terminal): share done, rate and time remaining.
-class ProgressBar {
- public:
-  ProgressBar(const std::atomic<long>& done, long total) : done_(done), total_(total) {
-    if (!isatty(STDERR_FILENO) || total <= 0) return;
-    start_ = std::chrono::steady_clock::now();
-    thread_ = std::thread([this] {
-      std::unique_lock<std::mutex> lock(m_);
-      while (!cv_.wait_for(lock, std::chrono::milliseconds(500), [this] { return stop_; })) draw();
-    });
-  }
-  ~ProgressBar() {
-    if (!thread_.joinable()) return;
-    {
-      std::lock_guard<std::mutex> lock(m_);
-      stop_ = true;
-    }
-    cv_.notify_all();
-    thread_.join();
-    print_stderr("\r" + std::string(78, ' ') + "\r");
-  }
-  ProgressBar(const ProgressBar&) = delete;
-  ProgressBar& operator=(const ProgressBar&) = delete;
 
- private:
-  void draw() {
-    const long d = done_.load();
-    const double f = static_cast<double>(d) / static_cast<double>(total_);
-    const double s = std::chrono::duration<double>(std::chrono::steady_clock::now() - start_).count();
-    const double rate = s > 0.0 ? static_cast<double>(d) / s : 0.0;
-    const int width = 24, fill = static_cast<int>(f * width);
-    print_stderr(fmt::format("\rsweep [{}{}] {:5.1f} % {}/{} layouts  {:.2f}/s  left {}  ", std::string(fill, '#'),
-                             std::string(width - fill, '-'), 100.0 * f, d, total_, rate,
-                             rate > 0.0 ? fmt_duration(static_cast<double>(total_ - d) / rate) : std::string("--:--")));
-  }
-  const std::atomic<long>& done_;
-  long total_;
-  std::chrono::steady_clock::time_point start_;
-  std::mutex m_;
-  std::condition_variable cv_;
-  bool stop_ = false;
-  std::thread thread_;
-};
 
-std::string read_text(const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
 
 struct Options {
   std::string sweep;
@@ -115,7 +65,7 @@ void check_sweep_folder(const Options& opt, const std::string& dir, const Sweep&
     throw InputError(fmt::format("--out {}: exists and is not a folder; expected a folder path", dir));
   if (opt.overwrite || is_skein_output_folder(dir) || (fs::is_empty(dir, ec) && !ec)) return;
   const std::string journal = (fs::path(dir) / "journal.txt").string();
-  if (fs::is_regular_file(journal, ec) && read_text(journal).rfind("skein-sweep-journal ", 0) == 0) return;
+  if (fs::is_regular_file(journal, ec) && read_file_text(journal, journal_max_bytes, "a sweep journal").rfind("skein-sweep-journal ", 0) == 0) return;
   throw InputError(fmt::format("--out {}: the folder exists and was not written by skein (it has no {} file); nothing "
                                "was changed. Expected a new or empty folder, a previous sweep output, or --overwrite "
                                "to write the results into it",
@@ -139,7 +89,7 @@ std::map<size_t, std::string> open_journal(const Options& opt, const std::string
   const std::string header = journal_header(sweep.fingerprint, set.layouts.size());
   std::map<size_t, std::string> rows;
   if (std::filesystem::exists(path) && !opt.restart) {
-    const std::string text = read_text(path);
+    const std::string text = read_file_text(path, journal_max_bytes, "a sweep journal");
     if (!opt.resume && !opt.salvage && text.size() > header.size())
       throw InputError(fmt::format("{}: a journal of an earlier run is there; pass --resume to continue it or --restart "
                                    "to discard it",
@@ -291,7 +241,7 @@ void run(const Options& opt) {
                            ranks > 1 ? fmt::format(" over {} ranks", ranks) : "",
                            pending_estimate_s >= 60.0
                                ? fmt::format("; the coverage work alone is estimated at about {} on 2 cores",
-                                             fmt_duration(pending_estimate_s))
+                                             format_duration(pending_estimate_s))
                                : ""));
   JournalWriter journal((std::filesystem::path(dir) / "journal.txt").string());
   std::mutex rows_mutex;
@@ -304,7 +254,8 @@ void run(const Options& opt) {
     finished.fetch_add(1);
   };
   {
-    ProgressBar bar(finished, static_cast<long>(pending.size()));
+    Progress bar("sweep", [&finished] { return static_cast<double>(finished.load()); },
+                 static_cast<double>(pending.size()), "layouts");
     if (ranks == 1) {
       evaluate_layouts(sweep, set, share, keep, eval);
     } else {

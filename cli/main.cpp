@@ -56,7 +56,7 @@ void print_stderr(const std::string& text) {
   std::fflush(stderr);
 }
 
-void print_caution() { print_stderr("caution: " + std::string(caution_text) + "\n"); }
+void print_caution() { print_stderr("Caution: " + std::string(caution_text) + "\n"); }
 
 }  // namespace skein::cli
 

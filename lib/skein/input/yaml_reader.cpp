@@ -1,5 +1,7 @@
 #include "skein/input/yaml_reader.hpp"
 
+#include "skein/io/read_file.hpp"
+
 #include <algorithm>
 #include <cmath>
 #include <cstdlib>
@@ -323,20 +325,16 @@ YAML::Node load_text(const std::string& text, const std::string& file) {
 }
 
 std::string read_text_file(const std::string& path) {
-  std::error_code ec;
-  if (std::filesystem::is_directory(path, ec))
-    throw InputError(fmt::format("{}: is a directory; expected a YAML design file", path));
-  std::ifstream in(path, std::ios::binary);
-  if (!in) throw InputError(fmt::format("{}: cannot be opened for reading; check the path", path));
-  // Read at most the limit plus one byte, so that /dev/zero or a huge file is refused at once.
-  std::string text(max_file_bytes + 1, '\0');
-  in.read(text.data(), static_cast<std::streamsize>(text.size()));
-  text.resize(static_cast<size_t>(in.gcount()));
-  if (in.bad()) throw InputError(fmt::format("{}: could not be read; check the path", path));
-  if (text.size() > max_file_bytes)
-    throw InputError(fmt::format("{}: is larger than {} bytes; a design file is expected to be under {} bytes", path,
-                                 max_file_bytes, max_file_bytes));
-  return text;
+  // The one file reader (io/read_file.hpp); "a design file" also names sweep files' limit, as before.
+  try {
+    return read_file_text(path, max_file_bytes, "a design file");
+  } catch (const InputError& e) {
+    const std::string m = e.what();
+    // A folder given as a design: say what was expected in the words of the design commands.
+    if (m.size() > path.size() && m.compare(path.size(), 16, ": is a directory") == 0)
+      throw InputError(fmt::format("{}: is a directory; expected a YAML design file", path));
+    throw;
+  }
 }
 
 YAML::Node key_node(const YAML::Node& map, std::string_view key) {
