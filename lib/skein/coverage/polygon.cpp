@@ -51,6 +51,18 @@ std::optional<std::string> polygon_problem(const std::vector<GeoVertex>& ring) {
     for (size_t j = i + 1; j < n; ++j)
       if (ring[i].lon_deg == ring[j].lon_deg && ring[i].lat_deg == ring[j].lat_deg)
         return fmt::format("vertices {} and {} are the same point; give an open ring without repeats", i, j);
+  // An edge runs the short way in the plane of longitude and latitude, so an edge over more than 180 deg of
+  // longitude is almost surely an antimeridian crossing written with a jump (170 to -170): read literally it
+  // would make the complement of the region meant. Refused, saying how to write it.
+  for (size_t i = 0; i < n; ++i) {
+    const GeoVertex& a = ring[i];
+    const GeoVertex& b = ring[(i + 1) % n];
+    if (std::abs(b.lon_deg - a.lon_deg) > 180.0)
+      return fmt::format("the edge from vertex {} (lon {}) to vertex {} (lon {}) spans {} deg of longitude; an edge may "
+                         "span at most 180 deg. To cross the antimeridian write the longitudes past 180 (for example 170 "
+                         "to 190); to go the long way round, add vertices in between",
+                         i, a.lon_deg, (i + 1) % n, b.lon_deg, std::abs(b.lon_deg - a.lon_deg));
+  }
   for (size_t i = 0; i < n; ++i) {
     for (size_t j = i + 1; j < n; ++j) {
       const bool adjacent = (j == i + 1) || (i == 0 && j == n - 1);

@@ -64,6 +64,24 @@ void read_grid(const MapReader& root, CoverageSpec& spec) {
         spec.region.push_back(v);
       }
       if (const auto problem = polygon_problem(spec.region)) g.fail_key("vertices", *problem);
+      {
+        // A region that holds no cell centre of its grid (centres at -90 + (i + 1/2) s, -180 + (j + 1/2) s, as
+        // grid.cpp places them) is refused here, at its position; a --spacing override is checked again when the
+        // grid is built. Grids of more than 4e6 cells are left to the coverage guard.
+        const double sp = spec.spacing_deg;
+        const long rows = std::lround(180.0 / sp), cols = std::lround(360.0 / sp);
+        if (static_cast<double>(rows) * static_cast<double>(cols) <= 4e6) {
+          bool any = false;
+          for (long i = 0; i < rows && !any; ++i)
+            for (long j = 0; j < cols && !any; ++j)
+              any = point_in_polygon(-180.0 + (static_cast<double>(j) + 0.5) * sp,
+                                     -90.0 + (static_cast<double>(i) + 0.5) * sp, spec.region);
+          if (!any)
+            g.fail_key("vertices", fmt::format("the region holds no cell centre of the {} deg grid; expected a larger "
+                                               "region or a finer spacing_deg",
+                                               sp));
+        }
+      }
       break;
     }
     case GridKind::sites: {

@@ -1,5 +1,6 @@
 #include "skein/input/design_file.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <set>
 
@@ -182,6 +183,16 @@ Design read_design(const YAML::Node& root_node, const std::string& file) {
   d.name = root.name("name", "a design name");
   const std::string epoch_text = root.string("epoch", "a UTC epoch");
   const auto epoch = parse_utc_iso8601(epoch_text);
+  if (!epoch && epoch_text.size() >= 4) {
+    // A well-formed epoch whose year lies outside the supported years gets a range message.
+    std::string in_range = epoch_text;
+    in_range.replace(0, 4, "2000");
+    const bool digits = std::all_of(epoch_text.begin(), epoch_text.begin() + 4, [](char c) { return c >= '0' && c <= '9'; });
+    if (digits && parse_utc_iso8601(in_range))
+      root.fail_key("epoch", fmt::format("the year {} is outside the supported years {} to {}; expected an epoch in "
+                                         "that range (the time scales and the Sun's almanac formulas are fitted there)",
+                                         epoch_text.substr(0, 4), min_epoch_year, max_epoch_year));
+  }
   if (!epoch)
     root.fail_key("epoch", fmt::format("{} is not a UTC epoch; expected ISO 8601 like 2027-03-01T00:00:00Z",
                                        yaml::quote_for_message(epoch_text)));

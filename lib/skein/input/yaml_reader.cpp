@@ -158,7 +158,8 @@ class EventGuard final : public YAML::EventHandler {
   void OnNull(const YAML::Mark& mark, YAML::anchor_t anchor) override { leaf(mark, anchor); }
   // Every text value and key, after YAML's escapes are decoded: no control character (a name is data and
   // stays on one line) and well-formed UTF-8 ("\uD800" decodes to an encoded surrogate).
-  void OnScalar(const YAML::Mark& mark, const std::string&, YAML::anchor_t anchor, const std::string& value) override {
+  void OnScalar(const YAML::Mark& mark, const std::string& tag, YAML::anchor_t anchor, const std::string& value) override {
+    check_tag(mark, tag);
     if (const auto bad = bad_text(value))
       throw InputError(fmt::format("{}: the text {} holds {}; expected printable text on one line (names and strings "
                                    "are data)",
@@ -174,13 +175,15 @@ class EventGuard final : public YAML::EventHandler {
     const auto it = size_.find(anchor);
     add(mark, it == size_.end() ? 1 : it->second);
   }
-  void OnSequenceStart(const YAML::Mark& mark, const std::string&, YAML::anchor_t anchor,
+  void OnSequenceStart(const YAML::Mark& mark, const std::string& tag, YAML::anchor_t anchor,
                        YAML::EmitterStyle::value) override {
+    check_tag(mark, tag);
     open(mark, anchor);
   }
   void OnSequenceEnd() override { close(); }
-  void OnMapStart(const YAML::Mark& mark, const std::string&, YAML::anchor_t anchor,
+  void OnMapStart(const YAML::Mark& mark, const std::string& tag, YAML::anchor_t anchor,
                   YAML::EmitterStyle::value) override {
+    check_tag(mark, tag);
     open(mark, anchor);
   }
   void OnMapEnd() override { close(); }
@@ -190,6 +193,20 @@ class EventGuard final : public YAML::EventHandler {
     YAML::anchor_t anchor;
     size_t count_before;
   };
+  // Only YAML 1.2's core schema tags are read ("!!str", "!!int", "!!float", "!!bool", "!!null", "!!seq",
+  // "!!map"), besides none at all ("?" for a plain node, "!" for a quoted one): a local or custom tag asks for a
+  // type a design has no use for, and would otherwise be dropped without a word.
+  void check_tag(const YAML::Mark& mark, const std::string& tag) const {
+    if (tag.empty() || tag == "?" || tag == "!") return;
+    static constexpr std::string_view core = "tag:yaml.org,2002:";
+    if (tag.rfind(core, 0) == 0) {
+      const std::string_view name = std::string_view(tag).substr(core.size());
+      for (std::string_view ok : {"str", "int", "float", "bool", "null", "seq", "map"})
+        if (name == ok) return;
+    }
+    throw InputError(fmt::format("{}: the tag {} is not one of YAML's core tags; expected a value without a tag",
+                                 location(file_, mark), quote_for_message(tag)));
+  }
   void add(const YAML::Mark& mark, size_t n) {
     count_ += n;
     if (count_ > max_expanded_nodes)
@@ -351,9 +368,20 @@ void fail_at(const std::string& file, const YAML::Node& at, const std::string& p
   throw InputError(fmt::format("{}: {}: {}", location(file, mark), path.empty() ? "(top level)" : path, message));
 }
 
+// A number must be written as a plain scalar: a quoted "510" or a !!str 510 is text, and reading it as a number
+// would hide a slip (a value pasted from a spreadsheet, a unit left inside the quotes).
+void reject_quoted_number(const std::string& file, const YAML::Node& node, const std::string& path, std::string_view what) {
+  const std::string& tag = node.Tag();
+  if (tag == "!" || tag == "tag:yaml.org,2002:str")
+    fail_at(file, node, path, fmt::format("expected {}, got the text {} (quoted or tagged as a string); write numbers "
+                                          "without quotes",
+                                          what, quote_for_message(node.Scalar())));
+}
+
 double scalar_number(const std::string& file, const YAML::Node& node, const std::string& path, double min, double max,
                      std::string_view what) {
   if (!node.IsScalar()) fail_at(file, node, path, fmt::format("expected {}, got {}", what, describe(node)));
+  reject_quoted_number(file, node, path, what);
   const std::string& s = node.Scalar();
   if (is_nan_or_inf_word(s))
     fail_at(file, node, path, fmt::format("expected {}, got {}: not-a-number and infinity are not accepted", what,
@@ -424,6 +452,7 @@ std::optional<double> MapReader::optional_number(std::string_view key, double mi
 
 long MapReader::integer(std::string_view key, long min, long max, std::string_view what) const {
   const YAML::Node n = node(key);
+  if (n.IsScalar()) reject_quoted_number(file_, n, path_of(key), what);
   if (!n.IsScalar() || !has_whole_number_syntax(n.Scalar()))
     fail(n, path_of(key), fmt::format("expected {} (a whole number), got {}", what, describe(n)));
   const std::string& s = n.Scalar();

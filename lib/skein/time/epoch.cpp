@@ -68,7 +68,7 @@ std::optional<UtcEpoch> parse_utc_iso8601(std::string_view t) {
     }
   }
   e.second = whole + frac;
-  if (e.year < 1900 || e.year > 2200 || e.month < 1 || e.month > 12 || e.day < 1 ||
+  if (e.year < min_epoch_year || e.year > max_epoch_year || e.month < 1 || e.month > 12 || e.day < 1 ||
       e.day > days_in_month(e.year, e.month) || e.hour > 23 || e.minute > 59 || e.second >= 61.0)
     return std::nullopt;
   return e;

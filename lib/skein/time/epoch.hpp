@@ -6,6 +6,11 @@
 
 namespace skein {
 
+// The years an epoch may fall in (common practice for this model set: the GMST and almanac Sun formulas are
+// fitted to the present era; 1900 to 2200 bounds their use generously).
+inline constexpr int min_epoch_year = 1900;
+inline constexpr int max_epoch_year = 2200;
+
 // A UTC calendar instant. seconds may reach 60.x only on a leap second.
 struct UtcEpoch {
   int year = 2000, month = 1, day = 1, hour = 0, minute = 0;
