@@ -28,6 +28,7 @@ void add_check_command(CLI::App& app) {
       j["epoch"] = format_utc_iso8601(design.epoch, 3);
       j["earth_model"] = std::string(design.earth.name);
       j["shells"] = rows_to_json(shell_table(design));
+      j["planes"] = rows_to_json(plane_table(design));
       j["satellites"] = rows_to_json(sats);
       print_stdout(j.dump(2) + "\n");
     } else if (format_of(opt->format) == OutputFormat::csv) {
@@ -35,7 +36,8 @@ void add_check_command(CLI::App& app) {
     } else {
       print_stdout(fmt::format("Design \"{}\" ({}), epoch {}, Earth model {}: valid.\n\n", design.name, design.file,
                                format_utc_iso8601(design.epoch, 3), design.earth.name));
-      print_stdout(render_text(shell_table(design)) + "\n" + render_text(sats));
+      print_stdout(render_text(shell_table(design)) + "\n" + render_text(plane_table(design)) + "\n" +
+                   render_text(sats));
     }
   });
 }

@@ -35,18 +35,20 @@ void add_drift_command(CLI::App& app) {
     }
     const Design design = read_design_file(opt->design);
     const DriftResult drift = compute_drift(design, options);
-    const Table shells = drift_table(drift), pairs = differential_drift_table(drift);
+    const Table shells = drift_table(drift), pairs = differential_drift_table(drift),
+                planes = plane_table(design);
     if (format_of(opt->format) == OutputFormat::json) {
       nlohmann::ordered_json j;
       j["design"] = design.name;
       j["earth_model"] = std::string(design.earth.name);
       j["shells"] = rows_to_json(shells);
+      j["planes"] = rows_to_json(planes);
       j["differential_drift"] = rows_to_json(pairs);
       print_stdout(j.dump(2) + "\n");
     } else if (format_of(opt->format) == OutputFormat::csv) {
       print_stdout(render_csv(shells));
     } else {
-      print_stdout(render_text(shells));
+      print_stdout(render_text(shells) + "\n" + render_text(planes));
       if (!drift.pairs.empty()) print_stdout("\n" + render_text(pairs));
     }
   });

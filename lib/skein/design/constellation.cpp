@@ -11,7 +11,14 @@ namespace skein {
 
 double walker_plane_raan_rad(const Shell& shell, int plane) {
   assert(shell.planes > 0);
-  const double spread = shell.pattern == PatternKind::walker_star ? 180.0 : 360.0;
+  if (shell.ltan_span_h) {
+    // First and last planes at the span's ends; local mean time advances 15 deg of node per hour. The reader
+    // refuses a one-plane shell with a span, but a sweep may vary P down to 1: that plane keeps the first time.
+    if (shell.planes == 1) return wrap_two_pi(shell.raan0_deg * rad_per_deg);
+    return wrap_two_pi((shell.raan0_deg + plane * (*shell.ltan_span_h * 15.0) / (shell.planes - 1)) * rad_per_deg);
+  }
+  const double spread = shell.node_span_deg ? *shell.node_span_deg
+                                            : (shell.pattern == PatternKind::walker_star ? 180.0 : 360.0);
   return wrap_two_pi((shell.raan0_deg + plane * spread / shell.planes) * rad_per_deg);
 }
 

@@ -18,8 +18,11 @@ struct Satellite {
 };
 
 // Node of plane j and mean argument of latitude of slot k in a Walker pattern T/P/F:
-//   Omega_j = Omega_0 + j * spread / P   (spread 360 deg for delta, 180 deg for star)
-//   u_jk    = k * 360 deg / (T/P) + j * F * 360 deg / T.
+//   Omega_j = Omega_0 + j * spread / P   (spread 360 deg for delta, 180 deg for star, or the shell's
+//                                         node_span_deg)
+//   Omega_j = Omega_0 + j * 15 deg/h * ltan_span_h / (P - 1)   (a span of local times, first and last plane
+//                                         included; local mean time turns with the node at 15 deg per hour)
+//   u_jk    = k * 360 deg / (T/P) + j * F * 360 deg / T   (the same phasing offset whatever the node span).
 // Source: J.G. Walker, "Satellite constellations", J. British Interplanetary Society 37 (1984) 559-572
 // (delta patterns); the star layout spreads the same pattern over 180 deg of node (common practice, and the
 // same phasing unit 360 F / T is used for both here).

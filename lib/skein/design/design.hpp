@@ -14,8 +14,8 @@ namespace skein {
 
 // How a shell's satellites are laid out.
 enum class PatternKind {
-  walker_delta,    // T/P/F, planes spread over 360 deg of node
-  walker_star,     // T/P/F, planes spread over 180 deg of node
+  walker_delta,    // T/P/F, planes spread over 360 deg of node (unless the shell gives a node span)
+  walker_star,     // T/P/F, planes spread over 180 deg of node (unless the shell gives a node span)
   explicit_planes  // each plane's node and slots given
 };
 std::string_view to_string(PatternKind kind);
@@ -41,6 +41,10 @@ struct Shell {
   double inclination_deg = 0.0;  // resolved; for SSO shells the computed value
   bool sun_synchronous = false;
   std::optional<double> ltan_h;  // local mean time of the ascending node of the first plane, hours
+  // Walker shells only, at most one of the two (both absent: the pattern's 360 or 180 deg):
+  std::optional<double> node_span_deg;  // the node span the P planes divide: plane j at raan0 + j * span / P
+  std::optional<double> ltan_span_h;    // sun-synchronous: hours from the first plane's LTAN to the last plane's
+                                        // (inclusive, P >= 2): plane j at ltan + j * span / (P - 1)
 };
 
 struct Spacecraft {

@@ -70,8 +70,10 @@ void read_inclination(const MapReader& m, const EarthModel& earth, const UtcEpoc
                          shell.a_km, shell.e));
     shell.inclination_deg = *i * deg_per_rad;
     if (shell.pattern != PatternKind::explicit_planes) {
-      if (!m.has("ltan"))
+      if (!m.has("ltan") && !m.has("ltan_span"))
         m.fail(m.self(), m.path(), "a sun-synchronous shell needs ltan, the local time of the first plane's ascending node, e.g. \"10:30\"");
+      if (m.has("ltan") && m.has("ltan_span"))
+        m.fail_key("ltan_span", "give ltan or ltan_span, not both: ltan_span's first time is the first plane's ltan");
       if (m.has("raan_deg"))
         m.fail_key("raan_deg", "a sun-synchronous shell sets its first node from ltan; remove raan_deg");
     }
@@ -79,6 +81,9 @@ void read_inclination(const MapReader& m, const EarthModel& earth, const UtcEpoc
     shell.inclination_deg = yaml::scalar_number(m.file(), inc, m.path_of("inclination_deg"), 0.0, 180.0,
                                                 "an inclination in degrees or sun-synchronous");
     if (m.has("ltan")) m.fail_key("ltan", "ltan applies only to sun-synchronous shells; use raan_deg for the first node");
+    if (m.has("ltan_span"))
+      m.fail_key("ltan_span", "ltan_span applies only to sun-synchronous shells; use node_span_deg (and raan_deg for the "
+                              "first node)");
   }
   if (m.has("ltan")) {
     const std::string t = m.string("ltan", "a local time \"HH:MM\"");
@@ -86,7 +91,7 @@ void read_inclination(const MapReader& m, const EarthModel& earth, const UtcEpoc
     if (!h) m.fail_key("ltan", fmt::format("{} is not a local time; expected \"HH:MM\" from 00:00 to 23:59", yaml::quote_for_message(t)));
     shell.ltan_h = *h;
     shell.raan0_deg = node_for_local_time_rad(*h, julian_date(epoch)) * deg_per_rad;
-  } else {
+  } else if (!m.has("ltan_span")) {  // with ltan_span, read_node_span sets the first node
     shell.raan0_deg = m.optional_number("raan_deg", -360.0, 360.0, "the first plane's node in degrees").value_or(0.0);
   }
 }
@@ -100,6 +105,49 @@ void read_walker(const MapReader& m, Shell& shell) {
                                      shell.satellites, shell.planes));
   if (shell.phasing < 0 || shell.phasing > shell.planes - 1)
     m.fail_key("phasing", fmt::format("F = {} is outside 0..P-1 = 0..{}", shell.phasing, shell.planes - 1));
+}
+
+// The optional node span of a Walker shell, read after its plane count: node_span_deg (the span the P planes
+// divide, like the pattern's 360 or 180 deg) or, for sun-synchronous shells, ltan_span (the first and last
+// planes' local times, both included; through midnight when the last is earlier than the first).
+void read_node_span(const MapReader& m, const UtcEpoch& epoch, Shell& shell) {
+  if (m.has("node_span_deg") && m.has("ltan_span"))
+    m.fail_key("ltan_span", "give node_span_deg or ltan_span, not both");
+  if (m.has("node_span_deg")) {
+    const double span = m.number("node_span_deg", -1e9, 1e9, "a node span in degrees");
+    if (!(span > 0.0 && span <= 360.0))
+      m.fail_key("node_span_deg", fmt::format("node span {} deg is outside (0, 360]; expected the span of node the "
+                                              "planes divide evenly, above 0 and at most 360 deg",
+                                              span));
+    shell.node_span_deg = span;
+  }
+  if (!m.has("ltan_span")) return;
+  const std::string path = m.path_of("ltan_span");
+  const YAML::Node list = m.node("ltan_span");
+  constexpr std::string_view expected = "expected two local times [\"HH:MM\", \"HH:MM\"], the first and the last plane's";
+  if (!list.IsSequence() || list.size() != 2)
+    m.fail(list, path, fmt::format("ltan_span is not a list of two items; {}", expected));
+  double h[2] = {0.0, 0.0};
+  for (size_t k = 0; k < 2; ++k) {
+    const std::string item_path = fmt::format("{}[{}]", path, k);
+    if (!list[k].IsScalar())
+      yaml::fail_at(m.file(), list[k], item_path, "expected a local time \"HH:MM\" (text), got a list or a map");
+    const auto t = parse_local_time_h(list[k].Scalar());
+    if (!t)
+      yaml::fail_at(m.file(), list[k], item_path,
+                    fmt::format("{} is not a local time; expected \"HH:MM\" from 00:00 to 23:59",
+                                yaml::quote_for_message(list[k].Scalar())));
+    h[k] = *t;
+  }
+  if (shell.planes < 2)
+    m.fail_key("ltan_span", "a one-plane shell has no span of local times; give ltan instead");
+  const double span_h = std::fmod(h[1] - h[0] + 24.0, 24.0);
+  if (span_h == 0.0)
+    m.fail_key("ltan_span", "the first and last local times are the same; expected two different times (the span "
+                            "runs forward from the first to the last, through midnight when the last is earlier)");
+  shell.ltan_h = h[0];
+  shell.ltan_span_h = span_h;
+  shell.raan0_deg = node_for_local_time_rad(h[0], julian_date(epoch)) * deg_per_rad;
 }
 
 void read_explicit(const MapReader& m, const UtcEpoch& epoch, Shell& shell) {
@@ -142,7 +190,7 @@ Shell read_shell(const std::string& file, const YAML::Node& node, const std::str
   static const std::vector<std::string_view> common = {"name", "pattern", "altitude_km", "semi_major_axis_km",
                                                        "eccentricity", "arg_perigee_deg", "inclination_deg", "ltan"};
   std::vector<std::string_view> all = common;
-  for (auto k : {"satellites", "planes", "phasing", "raan_deg"}) all.push_back(k);
+  for (auto k : {"satellites", "planes", "phasing", "raan_deg", "node_span_deg", "ltan_span"}) all.push_back(k);
   const MapReader probe(file, node, path, all);
   Shell shell;
   shell.name = probe.name("name", "a shell name");
@@ -159,15 +207,17 @@ Shell read_shell(const std::string& file, const YAML::Node& node, const std::str
   if (shell.pattern == PatternKind::explicit_planes) {
     allowed.push_back("planes");
   } else {
-    for (auto k : {"satellites", "planes", "phasing", "raan_deg"}) allowed.push_back(k);
+    for (auto k : {"satellites", "planes", "phasing", "raan_deg", "node_span_deg", "ltan_span"}) allowed.push_back(k);
   }
   const MapReader m(file, node, path, allowed);
   read_orbit(m, earth, shell);
   read_inclination(m, earth, epoch, shell);
   if (shell.pattern == PatternKind::explicit_planes)
     read_explicit(m, epoch, shell);
-  else
+  else {
     read_walker(m, shell);
+    read_node_span(m, epoch, shell);
+  }
   return shell;
 }
 

@@ -1,6 +1,7 @@
 #include "skein/report/layout_tables.hpp"
 
 #include "skein/constants.hpp"
+#include "skein/design/plane_nodes.hpp"
 
 namespace skein {
 namespace {
@@ -34,6 +35,16 @@ Table shell_table(const Design& design) {
     t.add_row({s.name, std::string(to_string(s.pattern)), static_cast<long>(s.satellites), static_cast<long>(s.planes),
                s.pattern == PatternKind::explicit_planes ? Cell() : Cell(static_cast<long>(s.phasing)),
                s.a_km - design.earth.radius_km, s.e, s.inclination_deg, opt(s.ltan_h)});
+  return t;
+}
+
+Table plane_table(const Design& design) {
+  Table t;
+  t.title = "Planes at epoch (node and local time of the ascending node)";
+  t.columns = {{"shell", "shell", "", 0}, {"plane", "plane", "", 0}, {"raan_deg", "node", "deg", 4},
+               {"ltan_h", "LTAN", "h", 2}};
+  for (const auto& p : plane_nodes(design))
+    t.add_row({design.shells[p.shell].name, static_cast<long>(p.plane + 1), p.raan_deg, p.ltan_h});
   return t;
 }
 

@@ -11,6 +11,8 @@ namespace skein {
 
 Table satellite_table(const Design& design, const std::vector<Satellite>& satellites);
 Table shell_table(const Design& design);
+// One row per plane of every shell: its node at epoch and the local time of its ascending node then.
+Table plane_table(const Design& design);
 Table drift_table(const DriftResult& drift);
 Table differential_drift_table(const DriftResult& drift);
 

@@ -66,6 +66,7 @@ std::string summary_markdown(const Design& d, const std::vector<NamedTable>& tab
   m += "> **Caution.** " + std::string(caution_text) + "\n\n";
   for (const auto& w : warnings) m += "> **Warning.** " + markdown_escape(w) + "\n\n";
   const char* sections[][2] = {{"shells", "Layout"},
+                               {"planes", ""},
                                {"drift", "J2 drift"},
                                {"differential_drift", ""},
                                {"coverage_overview", "Coverage"},
@@ -146,6 +147,7 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
 
   std::vector<NamedTable> tables = {
       {"shells", shell_table(design)},
+      {"planes", plane_table(design)},
       {"satellites", satellite_table(design, sats)},
       {"drift", drift_table(drift)},
       {"differential_drift", differential_drift_table(drift)},
