@@ -52,14 +52,22 @@ inline double track_deviation_bound_rad(const TrackRates& t, double h_s) {
 // u(t0) to u(t1), whose length is D (cos_d = cos D = u(t0).u(t1)), the farthest such point sits across the
 // arc's midpoint at lambda + eps, at angle acos(cos(lambda + eps) cos(D / 2)) from either end (spherical
 // Pythagoras). cos_lambda is cos(lambda); the result is clamped to [-1, 1].
-inline double swept_footprint_cos(double cos_lambda, double eps_rad, double cos_d) {
+// The two factors, apart: cos(lambda + eps) depends only on the orbit radius and the step, so the row sweep
+// keeps it per radius; only cos(D / 2) changes from satellite to satellite and step to step.
+inline double widened_footprint_cos(double cos_lambda, double eps_rad) {
+  if (eps_rad >= 3.14159) return -1.0;
   const double c = std::clamp(cos_lambda, -1.0, 1.0);
   const double s = std::sqrt(std::max(0.0, 1.0 - c * c));
-  const double c_le = c * std::cos(eps_rad) - s * std::sin(eps_rad);  // cos(lambda + eps)
-  if (eps_rad >= 3.14159 || c_le <= -1.0) return -1.0;
+  return c * std::cos(eps_rad) - s * std::sin(eps_rad);  // cos(lambda + eps)
+}
+inline double swept_footprint_cos_from_widened(double c_le, double cos_d) {
+  if (c_le <= -1.0) return -1.0;
   const double half = std::sqrt(std::max(0.0, (1.0 + std::clamp(cos_d, -1.0, 1.0)) / 2.0));  // cos(D / 2)
   const double out = c_le >= 0.0 ? c_le * half : c_le;  // past 90 deg the cap is a hemisphere or more: keep it
   return std::clamp(out - 1e-12, -1.0, 1.0);
+}
+inline double swept_footprint_cos(double cos_lambda, double eps_rad, double cos_d) {
+  return swept_footprint_cos_from_widened(widened_footprint_cos(cos_lambda, eps_rad), cos_d);
 }
 
 // The cubic Hermite interpolant of a satellite's Earth-fixed position between two instants, from the

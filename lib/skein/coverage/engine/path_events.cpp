@@ -6,6 +6,40 @@
 #include "skein/coverage/engine/margin.hpp"
 
 namespace skein::coverage_engine {
+namespace {
+
+// One pair over one step: the true margin at the two buffered instants, and along the satellite's cubic path
+// between them (what both searches on the path read).
+class PairPath {
+ public:
+  PairPath(const PointGeo& p, const PositionBuffer& b, long j, int s, const Geometry& g, double t0, double t1)
+      : p_(p), g_(g), q0_(b.pos[b.at(j - 1, s)]), q1_(b.pos[b.at(j, s)]), w0_(b.vel[b.at(j - 1, s)]),
+        w1_(b.vel[b.at(j, s)]), path_(make_path(q0_, w0_, q1_, w1_, t1 - t0)) {}
+  MarginSample start() const { return true_margin(p_, q0_, w0_, g_); }
+  MarginSample end() const { return true_margin(p_, q1_, w1_, g_); }
+  MarginSample at(double tau) const {
+    double r[3], v[3];
+    path_.at(tau, r, v);
+    const double len = std::sqrt(r[0] * r[0] + r[1] * r[1] + r[2] * r[2]);
+    return true_margin(p_, SatPos{r[0], r[1], r[2], r[0] / len, r[1] / len, r[2] / len}, SatVel{v[0], v[1], v[2]}, g_);
+  }
+
+ private:
+  static CubicPath make_path(const SatPos& q0, const SatVel& w0, const SatPos& q1, const SatVel& w1, double h) {
+    const double p0[3] = {q0.x, q0.y, q0.z}, v0[3] = {w0.vx, w0.vy, w0.vz};
+    const double p1[3] = {q1.x, q1.y, q1.z}, v1[3] = {w1.vx, w1.vy, w1.vz};
+    return CubicPath(p0, v0, p1, v1, h);
+  }
+  const PointGeo& p_;
+  const Geometry& g_;
+  const SatPos& q0_;
+  const SatPos& q1_;
+  const SatVel& w0_;
+  const SatVel& w1_;
+  CubicPath path_;
+};
+
+}  // namespace
 
 // A pass of (p, s) wholly inside (t_{j-1}, t_j] for a pair out of view at both instants (hidden_pass.hpp).
 // sin_limit is the sine of an outer footprint angle of s valid for p over the step, widened by the track's
@@ -23,40 +57,20 @@ std::optional<HiddenPass> hidden_pass(const PointGeo& p, const PositionBuffer& b
     const double nn = std::sqrt(nx * nx + ny * ny + nz * nz);
     if (nn > 1e-12 && std::abs(p.ux * nx + p.uy * ny + p.uz * nz) > sin_limit * nn) return std::nullopt;
   }
-  const SatVel& w0 = b.vel[b.at(j - 1, s)];
-  const SatVel& w1 = b.vel[b.at(j, s)];
-  const MarginSample a = true_margin(p, q0, w0, g), c = true_margin(p, q1, w1, g);
+  // The rate test first: most candidates end here, before the path is built.
+  const MarginSample a = true_margin(p, q0, b.vel[b.at(j - 1, s)], g), c = true_margin(p, q1, b.vel[b.at(j, s)], g);
   if (!(a.rate > 0.0 && c.rate < 0.0)) return std::nullopt;
-  const double p0[3] = {q0.x, q0.y, q0.z}, v0[3] = {w0.vx, w0.vy, w0.vz};
-  const double p1[3] = {q1.x, q1.y, q1.z}, v1[3] = {w1.vx, w1.vy, w1.vz};
-  const CubicPath path(p0, v0, p1, v1, t1 - t0);
-  return find_hidden_pass(t0, t1, a, c, [&](double tau) {
-    double r[3], v[3];
-    path.at(tau, r, v);
-    const double len = std::sqrt(r[0] * r[0] + r[1] * r[1] + r[2] * r[2]);
-    const SatPos q{r[0], r[1], r[2], r[0] / len, r[1] / len, r[2] / len};
-    return true_margin(p, q, SatVel{v[0], v[1], v[2]}, g);
-  });
+  const PairPath path(p, b, j, s, g, t0, t1);
+  return find_hidden_pass(t0, t1, a, c, [&](double tau) { return path.at(tau); });
 }
 
 // The time of the one rise or set of (p, s) inside (t_{j-1}, t_j) (visible at one instant, not the other),
 // as the root of the true margin along the satellite's cubic path (regula falsi, Illinois, to 1e-9 of the
 // step). Used instead of the margin's cubic in time when Geometry::roots_on_path is set.
 double path_root(const PointGeo& p, const PositionBuffer& b, long j, int s, const Geometry& g, double t0, double t1) {
-  const SatPos& q0 = b.pos[b.at(j - 1, s)];
-  const SatPos& q1 = b.pos[b.at(j, s)];
-  const SatVel& w0 = b.vel[b.at(j - 1, s)];
-  const SatVel& w1 = b.vel[b.at(j, s)];
-  const double p0[3] = {q0.x, q0.y, q0.z}, v0[3] = {w0.vx, w0.vy, w0.vz};
-  const double p1[3] = {q1.x, q1.y, q1.z}, v1[3] = {w1.vx, w1.vy, w1.vz};
-  const CubicPath path(p0, v0, p1, v1, t1 - t0);
-  const auto f = [&](double tau) {
-    double r[3], v[3];
-    path.at(tau, r, v);
-    const double len = std::sqrt(r[0] * r[0] + r[1] * r[1] + r[2] * r[2]);
-    return true_margin(p, SatPos{r[0], r[1], r[2], r[0] / len, r[1] / len, r[2] / len}, SatVel{v[0], v[1], v[2]}, g).value;
-  };
-  return t0 + (t1 - t0) * illinois_root(0.0, true_margin(p, q0, w0, g).value, 1.0, true_margin(p, q1, w1, g).value, f, 1e-9);
+  const PairPath path(p, b, j, s, g, t0, t1);
+  const auto f = [&](double tau) { return path.at(tau).value; };
+  return t0 + (t1 - t0) * illinois_root(0.0, path.start().value, 1.0, path.end().value, f, 1e-9);
 }
 
 // Sine of the cross-track limit for hidden_pass from the cosine of an outer footprint angle and the track's

@@ -38,12 +38,13 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
   };
   // The same at a satellite's largest orbit radius (its outer cosine holds over a whole step), with the sine of
   // the hidden-pass cross-track limit.
-  double r_apo_seen = -1.0, cos_apo = 1.0, sin_limit_apo = 2.0;
+  double r_apo_seen = -1.0, cos_apo = 1.0, sin_limit_apo = 2.0, widened_apo = 1.0;
   const auto apogee_outer = [&](double r_km) {
     if (r_km != r_apo_seen) {
       r_apo_seen = r_km;
       cos_apo = footprint_cosines(row.bounds, r_km + radius_tolerance_km).outer;
       sin_limit_apo = cross_track_sin_limit(cos_apo, sw.track_eps_rad);
+      widened_apo = widened_footprint_cos(cos_apo, sw.track_eps_rad);
     }
   };
   if (cache.key.size() != static_cast<size_t>(sw.T)) {
@@ -106,7 +107,7 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
         apogee_outer(sw.sat_r_apo_km[su]);
         const SatPos& u0 = buf.pos[buf.at(step - 1, s)];
         const SatPos& u1 = sp1[s];
-        const double c_w = swept_footprint_cos(cos_apo, sw.track_eps_rad, u0.ux * u1.ux + u0.uy * u1.uy + u0.uz * u1.uz);
+        const double c_w = swept_footprint_cos_from_widened(widened_apo, u0.ux * u1.ux + u0.uy * u1.uy + u0.uz * u1.uz);
         const double sin_limit = sin_limit_apo;
         const double h1w = row_half_width(row.sin_psi, row.cos_psi, x1.sin_psi, x1.cos_psi, c_w, true);
         const double h0w = row_half_width(row.sin_psi, row.cos_psi, x0.sin_psi, x0.cos_psi, c_w, true);
