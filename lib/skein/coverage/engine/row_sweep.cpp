@@ -86,9 +86,10 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
       scratch.hidden.clear();
       const double t0 = sw.smp.time(step - 1), t1 = sw.smp.time(step);
       const SatAux* sx0 = &buf.by_lat_prev[buf.at(step, 0)];
-      // Satellites whose swept footprint can reach the row: the widest outer angle, widened as in
-      // swept_footprint_cos for the largest chord of a step.
-      const double reach = std::max(buf.swept_reach_rad, buf.reach_rad[buf.local(step - 1)]) + buf.moved_rad[buf.local(step)];
+      // Satellites whose swept footprint can reach the row: the widest outer angle at the largest orbit
+      // radius, widened as in swept_footprint_cos for the largest chord of a step (so never below the
+      // instant's own reach_rad), plus the largest move in latitude since t_{j-1}.
+      const double reach = buf.swept_reach_rad + buf.moved_rad[buf.local(step)];
       const auto [a, b] = latitude_range(buf, step, row.psi, reach);
       for (int k = a; k < b; ++k) {
         const int s = ord[k];
