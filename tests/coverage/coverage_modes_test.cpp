@@ -63,6 +63,13 @@ void check_same(const CoverageResult& a, const CoverageResult& b) {
     CHECK(p.mean_in_view == q.mean_in_view);
     CHECK(p.max_in_view == q.max_in_view);
     CHECK(p.radius_deg_by_fold == q.radius_deg_by_fold);
+    REQUIRE(p.gaps_by_fold.size() == q.gaps_by_fold.size());
+    for (size_t k = 0; k < p.gaps_by_fold.size(); ++k) {
+      CHECK(p.gaps_by_fold[k].max_gap_s == q.gaps_by_fold[k].max_gap_s);
+      CHECK(p.gaps_by_fold[k].p95_gap_s == q.gaps_by_fold[k].p95_gap_s);
+      CHECK(p.gaps_by_fold[k].gap_count == q.gaps_by_fold[k].gap_count);
+      CHECK(p.gaps_by_fold[k].mean_response_time_s == q.gaps_by_fold[k].mean_response_time_s);
+    }
   }
   CHECK(a.total.percent_by_fold == b.total.percent_by_fold);
   CHECK(a.required_radius_deg == b.required_radius_deg);

@@ -100,9 +100,10 @@ TEST_CASE("timeline: integrals and gaps of a hand-made event list") {
   // 1 on [70,70.5), 0 on [70.5,100]. Gaps: [0,10] = 10 s (open at the start), [45,70] = 25 s, and the final
   // [70.5,100] = 29.5 s, closed by the caller at the end of the span.
   std::vector<double> hist(33, 0.0);
+  std::vector<double> fold_start(2, -1.0);  // folds 2 and 3
   PointState ps;
-  const PointSums sums{hist.data()};
-  start_timeline(ps, 0);
+  const PointSums sums{hist.data(), fold_start.data(), 3};
+  start_timeline(ps, sums, 0);
   std::vector<Event> e = {{10.0, +1, 0}, {20.0, +1, 0}, {30.0, -1, 0}};
   apply_events(ps, sums, e.data(), e.data() + e.size(), 0.0, 30.0);
   std::vector<Event> e2 = {{70.5, -1, 0}, {45.0, -1, 0}, {70.0, +1, 0}};
@@ -120,4 +121,19 @@ TEST_CASE("timeline: integrals and gaps of a hand-made event list") {
   CHECK(ps.gaps[1] == doctest::Approx(25.0));
   CHECK(ps.in_gap);
   CHECK(ps.gap_start == doctest::Approx(70.5));
+  // Fold 2 (fewer than 2 in view): [0,20] = 20 s, closed at the rise to 2; [30,100] = 70 s, open at the end.
+  // Fold 3 (fewer than 3): the whole span, 100 s, never closed before the end.
+  REQUIRE(ps.fold_gaps.size() == 1);
+  CHECK(ps.fold_gaps[0].fold == 2);
+  CHECK(ps.fold_gaps[0].length_s == doctest::Approx(20.0));
+  close_gaps(ps, sums, 100.0);
+  CHECK_FALSE(ps.in_gap);
+  REQUIRE(ps.gaps.size() == 3);
+  CHECK(ps.gaps[2] == doctest::Approx(29.5));
+  REQUIRE(ps.fold_gaps.size() == 3);
+  // close_gaps adds fold 2 then fold 3, in fold order.
+  CHECK(ps.fold_gaps[1].fold == 2);
+  CHECK(ps.fold_gaps[1].length_s == doctest::Approx(70.0));
+  CHECK(ps.fold_gaps[2].fold == 3);
+  CHECK(ps.fold_gaps[2].length_s == doctest::Approx(100.0));
 }

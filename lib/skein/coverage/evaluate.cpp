@@ -166,6 +166,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan,
   std::vector<PointState> state(P);
   std::vector<double> worst_cos(P * static_cast<size_t>(K), 2.0);
   std::vector<double> hist(P * in_view_bins, 0.0);
+  std::vector<double> fold_gap_start(P * static_cast<size_t>(K - 1), 0.0);
   std::vector<std::int64_t> running(static_cast<size_t>(K), 0);
   std::vector<std::int64_t> worst_q(static_cast<size_t>(K), std::numeric_limits<std::int64_t>::max());
   std::int64_t pair_tests = 0, distance_tests = 0, fallbacks = 0, hidden_passes = 0;
@@ -174,7 +175,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan,
   buf.sats = T;
   const double search_rad = radius_search_rad(K, T);
   std::vector<int> nearest(exhaustive ? 0 : P * static_cast<size_t>(K), -1);
-  const EvaluationContext sw{buf, smp, gm, geo, weight_q, K, T, search_rad, std::cos(search_rad), state, worst_cos, hist, nearest,
+  const EvaluationContext sw{buf, smp, gm, geo, weight_q, K, T, search_rad, std::cos(search_rad), state, worst_cos, hist, fold_gap_start, nearest,
                  track_eps, r_apo, sat_sin_limit};
   if (!exhaustive) buf.swept_reach_rad = reach_of(r_apo_max) + track_eps + tr.rate_max_rad_s * smp.step / 2.0 + 1e-9;
 
@@ -237,7 +238,10 @@ CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan,
         worst_q[static_cast<size_t>(k)] = std::min(worst_q[static_cast<size_t>(k)], run);
       }
   }
-  for (size_t p = 0; p < P; ++p) integrate(state[p], sw.sums(p), smp.span);
+  for (size_t p = 0; p < P; ++p) {
+    integrate(state[p], sw.sums(p), smp.span);
+    close_gaps(state[p], sw.sums(p), smp.span);
+  }
 
   // Per-point metrics.
   CoverageResult res;

@@ -19,6 +19,16 @@ enum class CoverageMode {
 std::string_view to_string(CoverageMode mode);
 std::optional<CoverageMode> coverage_mode_from_string(std::string_view text);
 
+// Revisit figures at one fold k. A gap at fold k is an interval with fewer than k satellites in view (at
+// k = 1, with none); gaps at the start and end of the span count. Times in seconds.
+struct GapFigures {
+  double max_gap_s = 0.0;             // longest gap (for an aggregate: the worst point's)
+  double mean_gap_s = 0.0;            // 0 when there is no gap
+  double p95_gap_s = 0.0;             // 95th percentile of the gaps (an aggregate pools them, area-weighted)
+  long gap_count = 0;
+  double mean_response_time_s = 0.0;  // time average of the wait until at least k are in view
+};
+
 struct PointCoverage {
   GridPoint point;                          // position, weight, cell bounds
   std::vector<double> percent_by_fold;      // k = 1..K: percent of the span with at least k satellites in view
@@ -30,6 +40,7 @@ struct PointCoverage {
   double mean_in_view = 0.0;                // time average of the number of satellites in view
   int max_in_view = 0;
   std::vector<double> radius_deg_by_fold;   // k = 1..K: largest central angle to the k-th nearest satellite
+  std::vector<GapFigures> gaps_by_fold;     // k = 1..K; entry 0 holds the fold-1 figures above
 };
 
 // Aggregates over a set of points (the whole grid or one latitude band), area-weighted.
@@ -44,6 +55,15 @@ struct CoverageAggregate {
   double mean_response_time_s = 0.0;        // area-weighted
   double mean_in_view = 0.0;                // area- and time-weighted
   int max_in_view = 0;
+  std::vector<GapFigures> gaps_by_fold;     // k = 1..K; entry 0 holds the fold-1 figures above
+};
+
+// The least-covered point at fold k: the lowest percent of time with at least k in view (ties: the longer
+// gap at fold k, then the first in grid order), and its longest gap at fold k.
+struct WorstPoint {
+  size_t point = 0;                         // index into CoverageResult::points
+  double percent_covered = 0.0;
+  double max_gap_s = 0.0;
 };
 
 struct LatitudeBand {
@@ -68,6 +88,7 @@ struct CoverageResult {
   std::vector<LatitudeBand> bands;          // south to north, only bands holding points
   std::vector<double> required_radius_deg;  // k = 1..K: max over time and grid of the central angle to the k-th nearest
   std::vector<double> worst_instant_covered_percent;  // k = 1..K: min over the sample instants of the area share covered
+  std::vector<WorstPoint> worst_point_by_fold;        // k = 1..K
   std::vector<double> in_view_fraction;     // [n]: time- and area-weighted share with n satellites in view; last bin is "n or more"
   std::vector<double> gap_quantiles_s;      // [q], q = 0..100 %: pooled area-weighted gap distribution (empty: no gaps)
 

@@ -32,7 +32,7 @@ void scan_point(const EvaluationContext& sw, size_t p, long c0, long c1, Partial
     acc.distance_tests += sw.T;
     for (int k = 0; k < K; ++k) wc[k] = std::min(wc[k], tp[k]);
     if (step == 0) {
-      start_timeline(ps, static_cast<int>(fresh.size()));
+      start_timeline(ps, sums, static_cast<int>(fresh.size()));
     } else {
       // Rises (in fresh, not in vis) and sets (in vis, not in fresh) inside (t_{j-1}, t_j].
       crossings.clear();

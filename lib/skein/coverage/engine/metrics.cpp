@@ -18,40 +18,92 @@ double weighted_quantile(std::vector<std::pair<float, double>>& sample, double q
   return sample.back().first;
 }
 
+namespace {
+
+// The gaps of one point at fold k (1-based), in the order they closed.
+std::vector<float> gaps_at(const PointState& ps, int k) {
+  if (k == 1) return ps.gaps;
+  std::vector<float> out;
+  for (const FoldGap& g : ps.fold_gaps)
+    if (g.fold == k) out.push_back(g.length_s);
+  return out;
+}
+
+// The figures of one point's gaps over a span of `span_s`.
+GapFigures point_gap_figures(std::vector<float> gaps, double span_s) {
+  GapFigures f;
+  f.gap_count = static_cast<long>(gaps.size());
+  if (gaps.empty()) return f;
+  std::sort(gaps.begin(), gaps.end());
+  double sum = 0.0, sq = 0.0;
+  for (float g : gaps) {
+    sum += g;
+    sq += static_cast<double>(g) * g;
+  }
+  f.max_gap_s = gaps.back();
+  f.mean_gap_s = sum / static_cast<double>(gaps.size());
+  // Nearest-rank percentile: the ceil(0.95 n)-th smallest (common practice).
+  const size_t rank = static_cast<size_t>(std::ceil(0.95 * static_cast<double>(gaps.size())));
+  f.p95_gap_s = gaps[std::max<size_t>(rank, 1) - 1];
+  // Mean response time: a request at a time inside a gap of length g waits on average g/2, so the time
+  // average over the span is sum(g^2) / (2 span) (SMAD 3rd ed. sec. 7.2, "mean response time").
+  f.mean_response_time_s = sq / (2.0 * span_s);
+  return f;
+}
+
+}  // namespace
+
 CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::vector<size_t>& members,
                             const std::vector<PointState>& state, int K, double total_weight) {
   CoverageAggregate a;
   a.percent_by_fold.assign(static_cast<size_t>(K), 0.0);
-  double w = 0.0, gap_sum = 0.0, gap_weight = 0.0;
-  std::vector<std::pair<float, double>> pooled;
+  a.gaps_by_fold.assign(static_cast<size_t>(K), GapFigures{});
+  double w = 0.0;
   for (size_t i : members) {
     const PointCoverage& p = pts[i];
     const double pw = p.point.area_weight;
     w += pw;
     for (int k = 0; k < K; ++k) a.percent_by_fold[static_cast<size_t>(k)] += pw * p.percent_by_fold[static_cast<size_t>(k)];
-    a.max_gap_s = std::max(a.max_gap_s, p.max_gap_s);
-    a.gap_count += p.gap_count;
-    a.mean_response_time_s += pw * p.mean_response_time_s;
     a.mean_in_view += pw * p.mean_in_view;
     a.max_in_view = std::max(a.max_in_view, p.max_in_view);
-    for (float g : state[i].gaps) {
-      gap_sum += pw * g;
-      gap_weight += pw;
-      pooled.emplace_back(g, pw);
-    }
   }
   a.points = static_cast<long>(members.size());
   a.area_weight = w / total_weight;
   if (w > 0.0) {
     for (double& v : a.percent_by_fold) v /= w;
-    a.mean_response_time_s /= w;
     a.mean_in_view /= w;
   }
-  if (gap_weight > 0.0) {
-    a.mean_gap_s = gap_sum / gap_weight;
-    std::stable_sort(pooled.begin(), pooled.end(), [](const auto& x, const auto& y) { return x.first < y.first; });
-    a.p95_gap_s = weighted_quantile(pooled, 0.95);
+  std::vector<std::pair<float, double>> pooled;
+  for (int k = 1; k <= K; ++k) {
+    GapFigures& f = a.gaps_by_fold[static_cast<size_t>(k - 1)];
+    double gap_sum = 0.0, gap_weight = 0.0;
+    pooled.clear();
+    for (size_t i : members) {
+      const PointCoverage& p = pts[i];
+      const double pw = p.point.area_weight;
+      const GapFigures& pf = p.gaps_by_fold[static_cast<size_t>(k - 1)];
+      f.max_gap_s = std::max(f.max_gap_s, pf.max_gap_s);
+      f.gap_count += pf.gap_count;
+      f.mean_response_time_s += pw * pf.mean_response_time_s;
+      for (float g : gaps_at(state[i], k)) {
+        gap_sum += pw * g;
+        gap_weight += pw;
+        pooled.emplace_back(g, pw);
+      }
+    }
+    if (w > 0.0) f.mean_response_time_s /= w;
+    if (gap_weight > 0.0) {
+      f.mean_gap_s = gap_sum / gap_weight;
+      std::stable_sort(pooled.begin(), pooled.end(), [](const auto& x, const auto& y) { return x.first < y.first; });
+      f.p95_gap_s = weighted_quantile(pooled, 0.95);
+    }
   }
+  const GapFigures& f1 = a.gaps_by_fold.front();
+  a.max_gap_s = f1.max_gap_s;
+  a.mean_gap_s = f1.mean_gap_s;
+  a.p95_gap_s = f1.p95_gap_s;
+  a.gap_count = f1.gap_count;
+  a.mean_response_time_s = f1.mean_response_time_s;
   return a;
 }
 
@@ -66,7 +118,6 @@ void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointSta
   res.in_view_fraction.assign(in_view_bins, 0.0);
   for (size_t p = 0; p < P; ++p) {
     PointState& ps = state[p];
-    if (ps.in_gap && smp.span - ps.gap_start > 0.0) ps.gaps.push_back(static_cast<float>(smp.span - ps.gap_start));
     PointCoverage& pc = res.points[p];
     pc.point = grid.points[p];
     // Time with at least k in view: the bins above k - 1, summed from the top.
@@ -85,28 +136,28 @@ void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointSta
       pc.radius_deg_by_fold.push_back(rd);
       res.required_radius_deg[static_cast<size_t>(k)] = std::max(res.required_radius_deg[static_cast<size_t>(k)], rd);
     }
-    pc.gap_count = static_cast<long>(ps.gaps.size());
-    if (!ps.gaps.empty()) {
-      std::vector<float> sorted = ps.gaps;
-      std::sort(sorted.begin(), sorted.end());
-      double sum = 0.0, sq = 0.0;
-      for (float g : sorted) {
-        sum += g;
-        sq += static_cast<double>(g) * g;
-      }
-      pc.max_gap_s = sorted.back();
-      pc.mean_gap_s = sum / static_cast<double>(sorted.size());
-      // Nearest-rank percentile: the ceil(0.95 n)-th smallest (common practice).
-      const size_t rank = static_cast<size_t>(std::ceil(0.95 * static_cast<double>(sorted.size())));
-      pc.p95_gap_s = sorted[std::max<size_t>(rank, 1) - 1];
-      // Mean response time: a request at a time inside a gap of length g waits on average g/2, so the time
-      // average over the span is sum(g^2) / (2 span) (SMAD 3rd ed. sec. 7.2, "mean response time").
-      pc.mean_response_time_s = sq / (2.0 * smp.span);
-    }
+    for (int k = 1; k <= K; ++k) pc.gaps_by_fold.push_back(point_gap_figures(gaps_at(ps, k), smp.span));
+    const GapFigures& f1 = pc.gaps_by_fold.front();
+    pc.max_gap_s = f1.max_gap_s;
+    pc.mean_gap_s = f1.mean_gap_s;
+    pc.p95_gap_s = f1.p95_gap_s;
+    pc.gap_count = f1.gap_count;
+    pc.mean_response_time_s = f1.mean_response_time_s;
     pc.mean_in_view = ps.count_time / smp.span;
     pc.max_in_view = ps.max_in_view;
     for (int n = 0; n < in_view_bins; ++n)
       res.in_view_fraction[static_cast<size_t>(n)] += pc.point.area_weight * hist[p * in_view_bins + static_cast<size_t>(n)] / smp.span;
+  }
+  for (int k = 0; k < K; ++k) {
+    WorstPoint worst;
+    for (size_t p = 0; p < P; ++p) {
+      const PointCoverage& pc = res.points[p];
+      const double pct = pc.percent_by_fold[static_cast<size_t>(k)];
+      const double gap = pc.gaps_by_fold[static_cast<size_t>(k)].max_gap_s;
+      if (p == 0 || pct < worst.percent_covered || (pct == worst.percent_covered && gap > worst.max_gap_s))
+        worst = {p, pct, gap};
+    }
+    res.worst_point_by_fold.push_back(worst);
   }
   for (int k = 0; k < K; ++k)
     res.worst_instant_covered_percent.push_back(

@@ -18,8 +18,9 @@ CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::ve
 
 // The metrics of a finished run into `res` (whose run fields the driver set): per point (percent by fold from
 // the in-view time bins, required radius from the worst k-th nearest cosine, gaps, response time, in view),
-// the area-weighted total and latitude bands, the worst-instant share by fold and the pooled gap quantiles.
-// The open gap at the end of the span is closed here.
+// the area-weighted total and latitude bands, the worst-instant share and the least-covered point by fold, and
+// the pooled gap quantiles (fold 1). Gap figures are computed at every fold k = 1..K.
+// The gaps open at the end of the span were closed by the driver (close_gaps).
 void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointState>& state, const std::vector<double>& hist,
                      const std::vector<double>& worst_cos, const std::vector<std::int64_t>& worst_q, std::int64_t total_q,
                      const Sampling& smp, double band_width_deg);

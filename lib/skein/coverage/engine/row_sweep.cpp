@@ -77,7 +77,7 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
       }
       for (size_t i = 0; i < n; ++i) {
         const size_t p = static_cast<size_t>(row.point[i]);
-        start_timeline(sw.state[p], count[i]);
+        start_timeline(sw.state[p], sw.sums(p), count[i]);
         add_covered(acc, ls, K, 0, count[i], sw.weight_q[p]);
       }
     } else {

@@ -1,6 +1,7 @@
 #pragma once
 // The timeline of one ground point: count in view, integrals and gaps, advanced event by event.
 #include <algorithm>
+#include <cstdint>
 #include <vector>
 
 #include "skein/coverage/engine/crossings.hpp"
@@ -8,10 +9,17 @@
 
 namespace skein::coverage_engine {
 
+// A gap at fold k >= 2 (an interval with fewer than k satellites in view): its length and k.
+struct FoldGap {
+  float length_s;
+  std::uint8_t fold;
+};
+
 // The timeline of one ground point: satellites in view now, and the integrals and gaps so far.
 struct PointState {
   std::vector<int> vis;  // exhaustive mode: the satellites in view at the last instant, ascending
-  std::vector<float> gaps;
+  std::vector<float> gaps;  // fold 1: intervals with no satellite in view
+  std::vector<FoldGap> fold_gaps;  // folds 2..K, in the order they close
   double last_t = 0.0;   // the integrals below are taken up to this time
   double gap_start = 0.0;
   bool in_gap = false;
@@ -21,9 +29,12 @@ struct PointState {
 };
 
 // Per-point integrals: time with n in view (the time with at least k in view, k = 1..K, is summed from it at
-// the end; K is at most 16, under the last bin).
+// the end; K is at most 16, under the last bin), and the start of the open gap at each fold k = 2..K (entry
+// k - 2; a gap at fold k is open while fewer than k are in view).
 struct PointSums {
   double* hist;
+  double* fold_gap_start;  // K - 1 entries; unused when K = 1
+  int K;
 };
 
 inline void integrate(PointState& ps, const PointSums& sums, double t) {
@@ -34,7 +45,7 @@ inline void integrate(PointState& ps, const PointSums& sums, double t) {
   ps.last_t = t;
 }
 
-inline void start_timeline(PointState& ps, int count) {
+inline void start_timeline(PointState& ps, const PointSums& sums, int count) {
   ps.count = count;
   ps.max_in_view = count;
   ps.last_t = 0.0;
@@ -42,6 +53,29 @@ inline void start_timeline(PointState& ps, int count) {
     ps.in_gap = true;
     ps.gap_start = 0.0;
   }
+  for (int k = std::max(2, count + 1); k <= sums.K; ++k) sums.fold_gap_start[k - 2] = 0.0;
+}
+
+// A change of the count by one at time t, at the folds above 1: a rise to k closes the gap at fold k, a set
+// from k opens it. Each event crosses exactly one fold threshold.
+inline void fold_gap_event(PointState& ps, const PointSums& sums, int before, double t) {
+  if (ps.count > before) {
+    const int k = ps.count;
+    if (k >= 2 && k <= sums.K && t - sums.fold_gap_start[k - 2] > 0.0)
+      ps.fold_gaps.push_back({static_cast<float>(t - sums.fold_gap_start[k - 2]), static_cast<std::uint8_t>(k)});
+  } else {
+    const int k = before;
+    if (k >= 2 && k <= sums.K) sums.fold_gap_start[k - 2] = t;
+  }
+}
+
+// The gaps still open at the end of the span (time `span`), at every fold.
+inline void close_gaps(PointState& ps, const PointSums& sums, double span) {
+  if (ps.in_gap && span - ps.gap_start > 0.0) ps.gaps.push_back(static_cast<float>(span - ps.gap_start));
+  ps.in_gap = false;
+  for (int k = std::max(2, ps.count + 1); k <= sums.K; ++k)
+    if (span - sums.fold_gap_start[k - 2] > 0.0)
+      ps.fold_gaps.push_back({static_cast<float>(span - sums.fold_gap_start[k - 2]), static_cast<std::uint8_t>(k)});
 }
 
 // Apply the events of one step (t0, t1], sorted by event_before. Event times are clamped into the step and
@@ -63,6 +97,7 @@ inline void apply_events(PointState& ps, const PointSums& sums, const Event* beg
       ps.in_gap = true;
       ps.gap_start = te;
     }
+    if (sums.K > 1) fold_gap_event(ps, sums, before, te);
   }
 }
 
