@@ -94,7 +94,10 @@ void add_coverage_command(CLI::App& app) {
     } else if (f == OutputFormat::csv) {
       print_stdout(render_csv(bands));
     } else {
-      print_stdout(render_text(overview) + "\n" + coverage_between_instants_note(result) + "\n\n" +
+      std::string requirement;
+      if (result.requirement)
+        requirement = render_text(coverage_requirement_table(result)) + coverage_requirement_line(result) + "\n\n";
+      print_stdout(render_text(overview) + "\n" + coverage_between_instants_note(result) + "\n\n" + requirement +
                    render_text(folds) + "\n" + render_text(bands) + "\n" + render_text(in_view_distribution_table(result)));
     }
     print_caution();

@@ -22,6 +22,7 @@
 #include "skein/coverage/footprint.hpp"
 #include "skein/coverage/ground_geometry.hpp"
 #include "skein/coverage/grid.hpp"
+#include "skein/coverage/requirement_check.hpp"
 #include "skein/design/coverage_spec.hpp"
 #include "skein/design/constellation.hpp"
 #include "skein/error.hpp"
@@ -264,6 +265,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan,
   res.track_deviation_bound_deg = track_eps * deg_per_rad;
   res.path_error_bound_m = path_error_m;
   collect_metrics(res, grid, state, hist, worst_cos, worst_q, total_q, smp, st.spec.band_width_deg);
+  if (st.spec.requirement) res.requirement = judge_requirement(*st.spec.requirement, res);
   return res;
 }
 

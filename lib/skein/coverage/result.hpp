@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "skein/coverage/grid.hpp"
+#include "skein/coverage/requirement_verdict.hpp"
 #include "skein/design/coverage_spec.hpp"
 
 namespace skein {
@@ -91,6 +92,7 @@ struct CoverageResult {
   std::vector<WorstPoint> worst_point_by_fold;        // k = 1..K
   std::vector<double> in_view_fraction;     // [n]: time- and area-weighted share with n satellites in view; last bin is "n or more"
   std::vector<double> gap_quantiles_s;      // [q], q = 0..100 %: pooled area-weighted gap distribution (empty: no gaps)
+  std::optional<RequirementVerdict> requirement;  // the design's coverage.requirement, judged (none without one)
 
   // Work done, for benchmarks and the progress line.
   std::int64_t point_steps = 0;             // grid points x sample instants

@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "skein/constants.hpp"
+#include "skein/design/requirement.hpp"
 
 namespace skein {
 
@@ -48,6 +49,9 @@ struct CoverageSpec {
   double step_s = 60.0;                 // step_s, default 60 s
   std::optional<int> max_fold;          // max_fold K; default min(3, satellites)
   double band_width_deg = 10.0;         // latitude_band_deg: width of the reporting latitude bands
+  // requirement: judged by `skein coverage` and the report; the evaluation reaches its fold even when
+  // max_fold is lower
+  std::optional<Requirement> requirement;
 };
 
 

@@ -5,6 +5,7 @@
 #include <fmt/format.h>
 
 #include "skein/coverage/polygon.hpp"
+#include "skein/input/requirement_block.hpp"
 #include "skein/input/yaml_reader.hpp"
 
 namespace skein {
@@ -109,7 +110,7 @@ CoverageSpec read_coverage_spec(const yaml::MapReader& root) {
   CoverageSpec spec;
   if (!root.has("coverage")) return spec;
   const MapReader block = root.map("coverage", {"grid", "min_elevation_deg", "nadir_half_angle_deg", "span_h",
-                                                "step_s", "max_fold", "latitude_band_deg"});
+                                                "step_s", "max_fold", "latitude_band_deg", "requirement"});
   spec.present = true;
   if (block.has("grid")) read_grid(block, spec);
   if (block.has("min_elevation_deg"))
@@ -134,6 +135,11 @@ CoverageSpec read_coverage_spec(const yaml::MapReader& root) {
     spec.band_width_deg = block.number("latitude_band_deg", 0.5, 180.0, "a latitude band width in degrees");
     if (!divides(180.0, spec.band_width_deg))
       block.fail_key("latitude_band_deg", "the band width must divide 180 deg, e.g. 5, 10, 15, 30");
+  }
+  if (block.has("requirement")) {
+    RequirementReadOptions ro;
+    ro.sites_grid = spec.grid == GridKind::sites;
+    spec.requirement = read_requirement_block(block, "requirement", ro);
   }
   return spec;
 }

@@ -277,6 +277,12 @@ Design read_design(const YAML::Node& root_node, const std::string& file) {
     yaml::fail_at(file, root.node("coverage")["max_fold"], "coverage.max_fold",
                   fmt::format("fold {} is larger than the design's {} satellites; expected at most {}",
                               *d.coverage.max_fold, total, total));
+  if (d.coverage.requirement && d.coverage.requirement->fold > total) {
+    const YAML::Node req = root.node("coverage")["requirement"];
+    yaml::fail_at(file, req["fold"] ? req["fold"] : req, "coverage.requirement.fold",
+                  fmt::format("fold {} is larger than the design's {} satellites; expected at most {}",
+                              d.coverage.requirement->fold, total, total));
+  }
   d.budget = read_budget_spec(root);
   return d;
 }

@@ -2,7 +2,17 @@
 
 #include <fmt/format.h>
 
+#include "skein/coverage/requirement_check.hpp"
+
 namespace skein {
+namespace {
+
+// A point's label for a table: its site name, or "lat, lon" of a grid cell's centre.
+std::string point_label(const GridPoint& p) {
+  return !p.name.empty() ? p.name : fmt::format("{:.2f}, {:.2f}", p.lat_deg, p.lon_deg);
+}
+
+}  // namespace
 
 Table coverage_overview_table(const CoverageResult& r) {
   Table t;
@@ -25,17 +35,56 @@ Table coverage_overview_table(const CoverageResult& r) {
 
 Table coverage_fold_table(const CoverageResult& r) {
   Table t;
-  t.title = "Coverage by fold (at least k satellites in view)";
+  t.title = "Coverage by fold (covered: at least k satellites in view; gap: fewer than k)";
   t.columns = {{"fold", "k", "", 0},
                {"percent_covered", "time covered", "%", 3},
                {"worst_instant_covered_percent", "worst instant area", "%", 3},
+               {"worst_point_percent", "worst point", "%", 3},
+               {"worst_point", "worst point at", "", 0},
+               {"max_gap_s", "max gap", "s", 1},
+               {"mean_gap_s", "mean gap", "s", 1},
+               {"p95_gap_s", "p95 gap", "s", 1},
+               {"gap_count", "gaps", "", 0},
+               {"mean_response_time_s", "mean response", "s", 1},
                {"required_radius_deg", "required radius", "deg", 3}};
   for (int k = 0; k < r.max_fold; ++k) {
     const size_t i = static_cast<size_t>(k);
+    const WorstPoint& w = r.worst_point_by_fold[i];
+    const GapFigures& g = r.total.gaps_by_fold[i];
     t.add_row({static_cast<long>(k + 1), r.total.percent_by_fold[i], r.worst_instant_covered_percent[i],
-               r.required_radius_deg[i]});
+               w.percent_covered, point_label(r.points[w.point].point), g.max_gap_s, g.mean_gap_s, g.p95_gap_s,
+               g.gap_count, g.mean_response_time_s, r.required_radius_deg[i]});
   }
   return t;
+}
+
+Table coverage_requirement_table(const CoverageResult& r) {
+  Table t;
+  t.title = "Requirement";
+  t.columns = {{"figure", "figure", "", 0},     {"fold", "k", "", 0},
+               {"condition", "condition", "", 0}, {"threshold", "threshold", "", 3},
+               {"value", "value", "", 3},       {"judged", "judged on", "", 0},
+               {"met", "met", "", 0},           {"failing_sites", "failing sites", "", 0}};
+  if (!r.requirement) return t;
+  const RequirementVerdict& v = *r.requirement;
+  for (const ThresholdVerdict& c : v.checks) {
+    std::string sites;
+    for (const std::string& n : c.failing_sites) sites += (sites.empty() ? "" : "; ") + n;
+    t.add_row({std::string(to_string(c.threshold.figure)), static_cast<long>(v.fold),
+               std::string(higher_is_better(c.threshold.figure) ? "at least" : "at most"), c.threshold.value, c.value,
+               std::string(c.per_site ? "every site (worst shown)" : "the grid"), std::string(c.met ? "yes" : "no"),
+               sites.empty() ? Cell() : Cell(sites)});
+  }
+  return t;
+}
+
+std::string coverage_requirement_line(const CoverageResult& r) {
+  if (!r.requirement) return "";
+  const RequirementVerdict& v = *r.requirement;
+  if (v.met) return fmt::format("Requirement at fold {}: met ({} condition{})", v.fold, v.checks.size(), v.checks.size() == 1 ? "" : "s");
+  std::string line = fmt::format("Requirement at fold {}: NOT met", v.fold);
+  for (const std::string& f : failed_check_texts(v)) line += "; " + f;
+  return line;
 }
 
 Table coverage_band_table(const CoverageResult& r) {
@@ -84,6 +133,12 @@ Table coverage_point_table(const CoverageResult& r) {
     t.columns.push_back(c);
   for (int k = 0; k < r.max_fold; ++k)
     t.columns.push_back({fmt::format("radius_deg_k{}", k + 1), fmt::format("radius k={}", k + 1), "deg", 3});
+  // Gaps at folds 2..K (fewer than k in view); the fold-1 figures are the plain columns above.
+  for (int k = 2; k <= r.max_fold; ++k) {
+    t.columns.push_back({fmt::format("max_gap_s_k{}", k), fmt::format("max gap k<{}", k), "s", 1});
+    t.columns.push_back({fmt::format("p95_gap_s_k{}", k), fmt::format("p95 gap k<{}", k), "s", 1});
+    t.columns.push_back({fmt::format("mean_response_time_s_k{}", k), fmt::format("mean response k={}", k), "s", 1});
+  }
   for (const PointCoverage& p : r.points) {
     std::vector<Cell> row{p.point.name, p.point.lat_deg, p.point.lon_deg, p.point.height_km, p.point.area_weight};
     if (p.point.cell) {
@@ -98,6 +153,11 @@ Table coverage_point_table(const CoverageResult& r) {
                                     p.mean_in_view, static_cast<long>(p.max_in_view)})
       row.push_back(c);
     for (double v : p.radius_deg_by_fold) row.emplace_back(v);
+    for (size_t k = 1; k < p.gaps_by_fold.size(); ++k) {
+      row.emplace_back(p.gaps_by_fold[k].max_gap_s);
+      row.emplace_back(p.gaps_by_fold[k].p95_gap_s);
+      row.emplace_back(p.gaps_by_fold[k].mean_response_time_s);
+    }
     t.add_row(std::move(row));
   }
   return t;
@@ -150,6 +210,18 @@ nlohmann::ordered_json coverage_json(const CoverageResult& result) {
   j["max_in_view"] = a.max_in_view;
   j["required_radius_deg"] = result.required_radius_deg;
   j["worst_instant_covered_percent_by_fold"] = result.worst_instant_covered_percent;
+  j["by_fold"] = rows_to_json(coverage_fold_table(result));
+  if (result.requirement) {
+    nlohmann::ordered_json req;
+    req["fold"] = result.requirement->fold;
+    req["every_site"] = result.requirement->every_site;
+    req["met"] = result.requirement->met;
+    req["checks"] = rows_to_json(coverage_requirement_table(result));
+    req["failing_sites"] = result.requirement->failing_sites;
+    j["requirement"] = std::move(req);
+  } else {
+    j["requirement"] = nullptr;
+  }
   j["latitude_bands"] = rows_to_json(coverage_band_table(result));
   j["in_view_distribution"] = rows_to_json(in_view_distribution_table(result));
   j["gap_quantiles_s"] = result.gap_quantiles_s;

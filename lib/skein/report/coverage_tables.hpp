@@ -1,4 +1,5 @@
 #pragma once
+#include <string>
 #include <string_view>
 // Tables of coverage results, shared by `skein coverage` and the report folder.
 #include "skein/coverage/result.hpp"
@@ -8,8 +9,14 @@ namespace skein {
 
 // One row: grid points and the area-weighted whole-grid figures.
 Table coverage_overview_table(const CoverageResult& r);
-// One row per fold k = 1..K: percent of time covered, worst instantaneous covered area, required radius.
+// One row per fold k = 1..K: percent of time covered, worst instantaneous covered area, the least-covered
+// point, revisit gaps at fold k (fewer than k in view), mean response and required radius.
 Table coverage_fold_table(const CoverageResult& r);
+// One row per threshold of the design's coverage requirement (no rows without one): the value judged, whether
+// it is met, and with every_site the sites that fail.
+Table coverage_requirement_table(const CoverageResult& r);
+// "Requirement at fold k: met (...)" or "... NOT met; <failed checks>"; empty without a requirement.
+std::string coverage_requirement_line(const CoverageResult& r);
 // One row per latitude band holding points.
 Table coverage_band_table(const CoverageResult& r);
 // One row per grid point, with its cell bounds (for maps and GeoJSON cells).

@@ -30,7 +30,7 @@ struct Figure {
 };
 
 std::string html_page(const Design& d, const std::vector<NamedTable>& tables, const std::vector<Figure>& figures,
-                      const std::vector<std::string>& warnings) {
+                      const std::vector<std::string>& warnings, const std::string& requirement_line) {
   std::string h = "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n";
   h += "<title>" + html_escape(d.name) + " - skein report</title>\n";
   h += "<style>\nbody{font-family:'DejaVu Sans',Arial,sans-serif;margin:2em auto;max-width:1100px;color:#1b2a49}\n"
@@ -43,6 +43,7 @@ std::string html_page(const Design& d, const std::vector<NamedTable>& tables, co
                    format_utc_iso8601(d.epoch, 0), d.earth.name);
   h += "<p class=\"caution\">" + html_escape(std::string(caution_text)) + "</p>\n";
   for (const auto& w : warnings) h += "<p class=\"caution\">Warning: " + html_escape(w) + "</p>\n";
+  if (!requirement_line.empty()) h += "<p><strong>" + html_escape(requirement_line) + "</strong></p>\n";
   h += "<h2>Tables</h2>\n";
   for (const auto& t : tables) {
     const bool long_table = t.file == "satellites" || t.file == "coverage_points" || t.file == "gap_distribution" ||
@@ -59,13 +60,16 @@ std::string html_page(const Design& d, const std::vector<NamedTable>& tables, co
   return h + "</body>\n</html>\n";
 }
 
-std::string summary_markdown(const Design& d, const std::vector<NamedTable>& tables, const std::vector<std::string>& warnings) {
+std::string summary_markdown(const Design& d, const std::vector<NamedTable>& tables, const std::vector<std::string>& warnings,
+                             const std::string& requirement_line) {
   std::string m = "# " + markdown_escape(d.name) + "\n\n";
   m += fmt::format("Design file {}, epoch {}, Earth model {} ({}).\n\n", markdown_escape(d.file), format_utc_iso8601(d.epoch, 0),
                    d.earth.name, d.earth.source);
   m += "> **Caution.** " + std::string(caution_text) + "\n\n";
   for (const auto& w : warnings) m += "> **Warning.** " + markdown_escape(w) + "\n\n";
-  const char* sections[][2] = {{"shells", "Layout"},
+  if (!requirement_line.empty()) m += "**" + markdown_escape(requirement_line) + "**\n\n";
+  const char* sections[][2] = {{"coverage_requirement", "Coverage requirement"},
+                               {"shells", "Layout"},
                                {"planes", ""},
                                {"drift", "J2 drift"},
                                {"differential_drift", ""},
@@ -108,8 +112,8 @@ ReportSizeEstimate estimate_report_size(const Design& design, const ReportOption
   const double levels = 4.0;  // solar levels of the decay tables, at most
   const double shells = static_cast<double>(design.shells.size());
   ReportSizeEstimate e;
-  // summary, page; 13 tables and the decay tables in CSV and JSON; up to 7 plots and one per shell; GeoJSON; OEM.
-  e.files = 2.0 + 2.0 * (13.0 + shells * levels) + 7.0 + shells + 1.0 + sats;
+  // summary, page; 14 tables and the decay tables in CSV and JSON; up to 7 plots and one per shell; GeoJSON; OEM.
+  e.files = 2.0 + 2.0 * (14.0 + shells * levels) + 7.0 + shells + 1.0 + sats;
   e.bytes = fixed_bytes + sats * (oem_header_bytes + samples * oem_line_bytes + satellite_table_bytes) +
             points * point_bytes;
   return e;
@@ -161,6 +165,7 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
       {"budget_lines", budget_lines_table(rep.budget)},
       {"lifetime_by_level", lifetime_by_level_table(rep.budget)},
   };
+  if (rep.coverage.requirement) tables.push_back({"coverage_requirement", coverage_requirement_table(rep.coverage)});
   for (const auto& sh : rep.budget.shells)
     for (const auto& dec : sh.decay)
       tables.push_back({fmt::format("decay_{}_{}", sh.name, to_string(dec.level)),
@@ -185,8 +190,8 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
 
   std::vector<std::string> warnings = rep.budget.warnings;
 
-  sink("summary.md", summary_markdown(design, tables, warnings));
-  sink("index.html", html_page(design, tables, figures, warnings));
+  sink("summary.md", summary_markdown(design, tables, warnings, coverage_requirement_line(rep.coverage)));
+  sink("index.html", html_page(design, tables, figures, warnings, coverage_requirement_line(rep.coverage)));
   for (const auto& t : tables) {
     sink("tables/" + t.file + ".csv", render_csv(t.table));
     nlohmann::ordered_json j;

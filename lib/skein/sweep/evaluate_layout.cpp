@@ -7,24 +7,10 @@
 #include "skein/budget/budget.hpp"
 #include "skein/coverage/cap_bound.hpp"
 #include "skein/coverage/evaluate.hpp"
+#include "skein/coverage/requirement_check.hpp"
 #include "skein/error.hpp"
 
 namespace skein {
-namespace {
-
-double figure_of(const LayoutMetrics& m, RequirementFigure f) {
-  switch (f) {
-    case RequirementFigure::percent_covered: return m.percent_covered;
-    case RequirementFigure::worst_instant_percent: return m.worst_instant_percent;
-    case RequirementFigure::max_gap_s: return m.max_gap_s;
-    case RequirementFigure::p95_gap_s: return m.p95_gap_s;
-    case RequirementFigure::mean_response_time_s: return m.mean_response_time_s;
-  }
-  return 0.0;
-}
-
-}  // namespace
-
 CoverageOptions sweep_coverage_options(const Sweep& sweep, const LayoutEvaluationOptions& options) {
   CoverageOptions c;
   c.max_fold = sweep.requirement.fold;
@@ -45,14 +31,18 @@ LayoutMetrics evaluate_layout(const Sweep& sweep, const Layout& layout, const La
     BudgetOptions bopt;
     bopt.level_curves = false;  // only the selected activity's lifetime is reported
     const BudgetResult bud = compute_budget(design, bopt);
-    const size_t k = static_cast<size_t>(sweep.requirement.fold - 1);
+    const int fold = sweep.requirement.fold;
+    const size_t k = static_cast<size_t>(fold - 1);
     m.percent_covered = cov.total.percent_by_fold.at(k);
-    m.cap_bound_satellites = cap_bound_satellites(design, sweep.shell_index, sweep.requirement.fold);
+    m.cap_bound_satellites = cap_bound_satellites(design, sweep.shell_index, fold);
     m.worst_instant_percent = cov.worst_instant_covered_percent.at(k);
-    m.max_gap_s = cov.total.max_gap_s;
-    m.mean_gap_s = cov.total.mean_gap_s;
-    m.p95_gap_s = cov.total.p95_gap_s;
-    m.mean_response_time_s = cov.total.mean_response_time_s;
+    m.worst_point_percent = cov.worst_point_by_fold.at(k).percent_covered;
+    const GapFigures& g = cov.total.gaps_by_fold.at(k);
+    m.max_gap_s = g.max_gap_s;
+    m.mean_gap_s = g.mean_gap_s;
+    m.p95_gap_s = g.p95_gap_s;
+    m.mean_response_time_s = g.mean_response_time_s;
+    m.failed = failed_check_texts(judge_requirement(sweep.requirement, cov));
     m.mean_in_view = cov.total.mean_in_view;
     const ShellBudget& sb = bud.shells.at(sweep.shell_index);
     m.lifetime_days = sb.lifetime_natural_days;
@@ -69,12 +59,6 @@ LayoutMetrics evaluate_layout(const Sweep& sweep, const Layout& layout, const La
     m.evaluated = false;
     m.error = e.what();
     return m;
-  }
-  for (const Threshold& t : sweep.requirement.thresholds) {
-    const double v = figure_of(m, t.figure);
-    if (higher_is_better(t.figure) ? v < t.value : v > t.value)
-      m.failed.push_back(fmt::format("{} {:.6g} {} {:.6g}", to_string(t.figure), v,
-                                     higher_is_better(t.figure) ? "<" : ">", t.value));
   }
   if (sweep.requirement.within_tank && m.exceeds_tank) m.failed.push_back("propellant exceeds the tank");
   if (!m.cannot_fly.empty()) m.failed.push_back("the budget cannot be flown");  // never the answer of a sweep

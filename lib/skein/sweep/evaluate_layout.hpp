@@ -27,7 +27,8 @@ struct LayoutMetrics {
   // are, that could cover the grid continuously at fold k; none for region and site grids
   std::optional<long> cap_bound_satellites;
   double worst_instant_percent = 0.0;  // at fold k
-  double max_gap_s = 0.0, mean_gap_s = 0.0, p95_gap_s = 0.0, mean_response_time_s = 0.0;  // fold 1
+  double worst_point_percent = 0.0;    // at fold k: the least-covered point's percent of time covered
+  double max_gap_s = 0.0, mean_gap_s = 0.0, p95_gap_s = 0.0, mean_response_time_s = 0.0;  // at fold k
   double mean_in_view = 0.0;
   // budget of the (first) varied shell and of the whole design
   double lifetime_days = 0.0;        // first varied shell, natural, selected solar activity
@@ -40,7 +41,8 @@ struct LayoutMetrics {
   std::vector<std::string> cannot_fly;  // "shell NAME: why", for every shell whose budget cannot be flown
   // the requirement
   bool meets = false;
-  std::vector<std::string> failed;   // the checks that failed, e.g. "percent_covered 84.20 < 90"
+  std::vector<std::string> failed;   // the checks that failed, e.g. "percent_covered 84.20 < 90"; with every_site
+                                     // they name the failing sites
 };
 
 // Evaluate one layout. InputErrors from the evaluators (for this layout's values) are caught and returned as

@@ -14,13 +14,16 @@ namespace skein {
 namespace {
 
 std::string figure_heading(const Sweep& sweep) {
+  const int k = sweep.requirement.fold;
+  // Gap figures at fold k > 1 say their fold; at fold 1 the plain heading.
+  const std::string gap_fold = k > 1 ? fmt::format(", fold {}", k) : "";
   switch (sweep.requirement.figure) {
-    case RequirementFigure::percent_covered: return fmt::format("time covered, fold {} (%)", sweep.requirement.fold);
-    case RequirementFigure::worst_instant_percent:
-      return fmt::format("worst-instant grid share covered, fold {} (%)", sweep.requirement.fold);
-    case RequirementFigure::max_gap_s: return "maximum revisit gap (s)";
-    case RequirementFigure::p95_gap_s: return "95th-percentile revisit gap (s)";
-    case RequirementFigure::mean_response_time_s: return "mean response time (s)";
+    case RequirementFigure::percent_covered: return fmt::format("time covered, fold {} (%)", k);
+    case RequirementFigure::worst_instant_percent: return fmt::format("worst-instant grid share covered, fold {} (%)", k);
+    case RequirementFigure::worst_point_percent: return fmt::format("time covered at the least-covered point, fold {} (%)", k);
+    case RequirementFigure::max_gap_s: return "maximum revisit gap" + gap_fold + " (s)";
+    case RequirementFigure::p95_gap_s: return "95th-percentile revisit gap" + gap_fold + " (s)";
+    case RequirementFigure::mean_response_time_s: return "mean response time" + gap_fold + " (s)";
   }
   return "";
 }

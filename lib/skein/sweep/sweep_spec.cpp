@@ -11,6 +11,7 @@
 
 #include "skein/input/design_file.hpp"
 #include "skein/input/coverage_block.hpp"
+#include "skein/input/requirement_block.hpp"
 #include "skein/input/yaml_reader.hpp"
 #include "skein/sweep/checksum.hpp"
 #include "skein/version.hpp"
@@ -379,48 +380,20 @@ Requirement read_requirement(const MapReader& root, const Sweep& sw) {
     if (!is_varied[s]) others += base.shells[s].satellites;
   if (!root.has("requirement"))
     root.fail(root.self(), root.path(), "missing key requirement; expected e.g. requirement: {min_percent_covered: 90}");
-  const MapReader m = root.map("requirement", {"fold", "min_percent_covered", "min_worst_instant_percent", "max_gap_s",
-                                               "max_p95_gap_s", "max_mean_response_time_s", "figure", "within_tank"});
-  Requirement r;
-  r.fold = static_cast<int>(m.optional_integer("fold", 1, max_fold_limit, fmt::format("a coverage fold k from 1 to {}", max_fold_limit)).value_or(1));
+  RequirementReadOptions ro;
+  ro.allow_within_tank = true;
+  ro.has_tank = base.spacecraft.isp_s && base.spacecraft.propellant_capacity_kg;
+  ro.sites_grid = base.coverage.grid == GridKind::sites;
   // Layouts whose own count is below the fold are skipped and counted; a fold above every layout's count
   // leaves nothing to evaluate, and is said here, at the fold, rather than as "no valid layout".
-  if (r.fold > largest_t + others)
-    m.fail_key("fold", fmt::format("fold {} is larger than any layout's satellite count (at most {}: {} in shell{} {} "
-                                   "and {} in the other shells); expected a fold from 1 to {}",
-                                   r.fold, largest_t + others, largest_t, sw.axes.shells.size() > 1 ? "s" : "", varied, others,
-                                   largest_t + others));
-  struct Key {
-    const char* key;
-    RequirementFigure figure;
-    double max;
-    const char* what;
+  ro.fold_problem = [&](int fold) -> std::optional<std::string> {
+    if (fold <= largest_t + others) return std::nullopt;
+    return fmt::format("fold {} is larger than any layout's satellite count (at most {}: {} in shell{} {} "
+                       "and {} in the other shells); expected a fold from 1 to {}",
+                       fold, largest_t + others, largest_t, sw.axes.shells.size() > 1 ? "s" : "", varied, others,
+                       largest_t + others);
   };
-  const Key keys[] = {
-      {"min_percent_covered", RequirementFigure::percent_covered, 100.0, "a percent of time covered (0 to 100)"},
-      {"min_worst_instant_percent", RequirementFigure::worst_instant_percent, 100.0, "a percent of the grid (0 to 100)"},
-      {"max_gap_s", RequirementFigure::max_gap_s, 1e9, "a revisit gap in s"},
-      {"max_p95_gap_s", RequirementFigure::p95_gap_s, 1e9, "a revisit gap in s"},
-      {"max_mean_response_time_s", RequirementFigure::mean_response_time_s, 1e9, "a response time in s"},
-  };
-  for (const Key& k : keys)
-    if (m.has(k.key)) r.thresholds.push_back({k.figure, m.number(k.key, 0.0, k.max, k.what)});
-  if (r.thresholds.empty())
-    m.fail(m.self(), m.path(),
-           "the requirement sets no threshold; expected at least one of min_percent_covered, min_worst_instant_percent, "
-           "max_gap_s, max_p95_gap_s, max_mean_response_time_s");
-  if (m.has("figure")) {
-    r.figure = *requirement_figure_from_string(m.choice(
-        "figure", {"percent_covered", "worst_instant_percent", "max_gap_s", "p95_gap_s", "mean_response_time_s"}));
-  } else {
-    r.figure = r.thresholds.front().figure;
-  }
-  if (m.has("within_tank")) {
-    r.within_tank = m.boolean("within_tank");
-    if (r.within_tank && (!base.spacecraft.isp_s || !base.spacecraft.propellant_capacity_kg))
-      m.fail_key("within_tank", "within_tank needs spacecraft.isp_s and spacecraft.propellant_capacity_kg in the base design");
-  }
-  return r;
+  return read_requirement_block(root, "requirement", ro);
 }
 
 std::vector<CostFigure> read_costs(const MapReader& root, const Design& base) {
@@ -465,7 +438,13 @@ Sweep read_sweep(const YAML::Node& node, const std::string& file, const std::str
                                       "to the sweep file",
                                       yaml::quote_for_message(sw.base_file)));
   sw.base = read_design_file(sw.base_file);
-  if (root.has("coverage")) sw.base.coverage = read_coverage_spec(root);
+  if (root.has("coverage")) {
+    sw.base.coverage = read_coverage_spec(root);
+    if (sw.base.coverage.requirement)
+      yaml::fail_at(file, yaml::key_node(root.node("coverage"), "requirement"), root.path_of("coverage") + ".requirement",
+                    "a sweep states its requirement at the top level (requirement: ...), not in its coverage block");
+  }
+  sw.base.coverage.requirement.reset();  // layouts are judged by the sweep's requirement, not the base design's
   sw.axes = read_axes(root, sw);
   sw.axes_location = yaml::location(file, root.node("axes").Mark());
   sw.requirement = read_requirement(root, sw);
@@ -478,29 +457,6 @@ Sweep read_sweep(const YAML::Node& node, const std::string& file, const std::str
 }
 
 }  // namespace
-
-std::string_view to_string(RequirementFigure f) {
-  switch (f) {
-    case RequirementFigure::percent_covered: return "percent_covered";
-    case RequirementFigure::worst_instant_percent: return "worst_instant_percent";
-    case RequirementFigure::max_gap_s: return "max_gap_s";
-    case RequirementFigure::p95_gap_s: return "p95_gap_s";
-    case RequirementFigure::mean_response_time_s: return "mean_response_time_s";
-  }
-  return "?";
-}
-
-std::optional<RequirementFigure> requirement_figure_from_string(std::string_view text) {
-  for (RequirementFigure f : {RequirementFigure::percent_covered, RequirementFigure::worst_instant_percent,
-                              RequirementFigure::max_gap_s, RequirementFigure::p95_gap_s,
-                              RequirementFigure::mean_response_time_s})
-    if (to_string(f) == text) return f;
-  return std::nullopt;
-}
-
-bool higher_is_better(RequirementFigure f) {
-  return f == RequirementFigure::percent_covered || f == RequirementFigure::worst_instant_percent;
-}
 
 std::string_view to_string(CostFigure c) {
   switch (c) {

@@ -11,20 +11,9 @@
 
 #include "skein/atmosphere/solar_activity.hpp"
 #include "skein/design/design.hpp"
+#include "skein/design/requirement.hpp"
 
 namespace skein {
-
-// The coverage figure a layout is judged on (and that the front trades against cost).
-enum class RequirementFigure {
-  percent_covered,        // area-weighted percent of time with at least k satellites in view (higher is better)
-  worst_instant_percent,  // lowest share of the grid covered at fold k at any sample instant (higher is better)
-  max_gap_s,              // worst point's longest revisit gap, fold 1 (lower is better)
-  p95_gap_s,              // 95th percentile of the pooled gap distribution, fold 1 (lower is better)
-  mean_response_time_s    // area-weighted mean wait until the next coverage, fold 1 (lower is better)
-};
-std::string_view to_string(RequirementFigure figure);
-std::optional<RequirementFigure> requirement_figure_from_string(std::string_view text);
-bool higher_is_better(RequirementFigure figure);
 
 // A cost figure to rank layouts by (every cost is lower-is-better).
 enum class CostFigure {
@@ -37,19 +26,6 @@ enum class CostFigure {
 };
 std::string_view to_string(CostFigure cost);
 std::optional<CostFigure> cost_figure_from_string(std::string_view text);
-
-// A threshold on one figure: "at least" for higher-is-better figures, "at most" for the others.
-struct Threshold {
-  RequirementFigure figure = RequirementFigure::percent_covered;
-  double value = 0.0;
-};
-
-struct Requirement {
-  int fold = 1;                       // k of percent_covered and worst_instant_percent (default 1)
-  std::vector<Threshold> thresholds;  // all must hold; at least one
-  RequirementFigure figure = RequirementFigure::percent_covered;  // the front's performance axis
-  bool within_tank = false;           // also require the propellant to fit spacecraft.propellant_capacity_kg
-};
 
 // One value of the inclination axis.
 struct InclinationChoice {

@@ -153,6 +153,13 @@ CoverageSettings resolve_coverage_settings(const Design& design, const CoverageO
   } else {
     st.max_fold = std::min(3, st.satellites);
   }
+  // The coverage block's requirement is judged at its fold: the evaluation reaches it.
+  if (s.requirement) {
+    if (s.requirement->fold > st.satellites)
+      throw InputError(fmt::format("coverage.requirement.fold: fold {} is larger than the design's {} satellites",
+                                   s.requirement->fold, st.satellites));
+    st.max_fold = std::max(st.max_fold, s.requirement->fold);
+  }
   return st;
 }
 
