@@ -7,9 +7,9 @@
 namespace skein {
 namespace {
 
-// A point's label for a table: its site name, or "lat, lon" of a grid cell's centre.
+// A point's label for a table: its site name, or "lat LAT lon LON" of a grid cell's centre (deg).
 std::string point_label(const GridPoint& p) {
-  return !p.name.empty() ? p.name : fmt::format("{:.2f}, {:.2f}", p.lat_deg, p.lon_deg);
+  return !p.name.empty() ? p.name : fmt::format("lat {:.2f} lon {:.2f}", p.lat_deg, p.lon_deg);
 }
 
 }  // namespace

@@ -53,9 +53,11 @@ CoverageWorkEstimate estimate(const Design& design, const CoverageSettings& st, 
   const double tests_per_point_step = mode == CoverageMode::exhaustive ? st.satellites : std::max(1.0, cand);
   e.pair_tests = e.point_steps * tests_per_point_step;
   const double gaps = std::min(passes, static_cast<double>(e.steps) / 2.0 + 1.0);
-  // Fold-1 gaps take 4 bytes each; the gaps at folds 2..K 8 bytes each, with a gap start per fold.
-  const double per_point = 160.0 + 16.0 * st.max_fold + 8.0 * in_view_bins + 4.0 * gaps + 8.0 * (st.max_fold - 1) * (1.0 + gaps) +
-                           8.0 * std::max(1.0, cand);
+  // Fold-1 gaps take 4 bytes each. Gaps at folds 2..K take 8 bytes each, with a gap start per fold; every set
+  // opens the gap of exactly one fold, so all folds together hold at most one gap per pass, plus K open at the
+  // start.
+  const double fold_gaps = st.max_fold > 1 ? 8.0 * (passes + st.max_fold) + 8.0 * (st.max_fold - 1) : 0.0;
+  const double per_point = 160.0 + 16.0 * st.max_fold + 8.0 * in_view_bins + 4.0 * gaps + fold_gaps + 8.0 * std::max(1.0, cand);
   const double chunk = mode == CoverageMode::exhaustive ? 0.0 : culled_scratch_bytes + 64.0 * 4.0 * (static_cast<double>(points) + 1.0);
   e.memory_bytes = static_cast<double>(points) * per_point * 2.0 + chunk + 70.0 * st.satellites * 112.0;  // satellite buffers, roughly
   e.seconds_2_cores = (3e-9 * e.pair_tests + 60e-9 * e.point_steps) / 2.0;
