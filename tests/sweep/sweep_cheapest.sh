@@ -52,4 +52,10 @@ grep -q "^no layout meets the requirement: the best front is empty; the trade fr
 grep -q "cheapest layout" "$tmp/none.txt" && fail "a cheapest layout was named though none passes"
 [ "$(wc -l <"$tmp/none/best_front.csv")" -eq 1 ] || fail "the best front is not empty"
 [ "$(wc -l <"$tmp/none/trade_front.csv")" -eq 2 ] || fail "the trade front does not hold the one layout"
+# A fold-2, every-site requirement over a sites grid (designs/sweeps/harbour-two-look.yaml): the same
+# brute force over its own files; the per-site verdicts are checked in tests/sweep/sweep_fold_sites_test.cpp.
+"$SKEIN" sweep "$SOURCE_DIR/designs/sweeps/harbour-two-look.yaml" --out "$tmp/harbour" --format json \
+  >"$tmp/harbour.json" 2>"$tmp/harbour.txt" || { cat "$tmp/harbour.txt"; fail "harbour sweep run"; }
+"$py" "$SOURCE_DIR/tests/sweep/check_cheapest.py" "$tmp/harbour" "$tmp/harbour.txt" "$tmp/harbour.json" \
+  percent_covered higher design_satellites fleet_dv_m_s || fail "brute-force check (harbour, fold 2, every site)"
 echo "sweep cheapest: the named layout equals the brute-force minimum"
