@@ -5,6 +5,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 #include <string>
 
 #include "skein/atmosphere/atmosphere.hpp"
@@ -102,6 +103,39 @@ TEST_CASE("a non-finite figure is refused with the shell and the cause") {
     const std::string m = e.what();
     CHECK(m.find("probe.yaml: shell s1: the propellant mass is not finite") == 0);
     CHECK(m.find("overflows") != std::string::npos);
+  }
+}
+
+TEST_CASE("fleet propellant masses that are finite per shell but overflow in their sum are refused") {
+  // Found by fuzz/design_fuzz.cpp. Two one-satellite shells at 20000 and 20100 km (drag negligible there), a
+  // budget of collision avoidance only: 1000/yr x 100 m/s x 100 yr = 1e7 m/s per satellite. With isp_s 1438 s,
+  // dv / (g0 isp_s) = 1e7 / 14101.96 = 709.12 and a 1 kg dry mass needs expm1(709.12) = 9.3e307 kg: finite
+  // (below 1.797e308) in each shell, 1.9e308 summed over the fleet, beyond the largest double.
+  const std::string text =
+      "name: overflow\nepoch: 2027-06-15T12:00:00Z\n"
+      "spacecraft: {dry_mass_kg: 1, drag_area_m2: 1, drag_coefficient: 2.2, isp_s: 1438}\n"
+      "budget:\n  mission_life_years: 100\n  node_control: none\n  slot_keeping: {shifts_per_year: 0}\n"
+      "  collision_avoidance: {manoeuvres_per_year: 1000, dv_per_manoeuvre_m_s: 100}\n"
+      "  disposal: {mode: none}\n  margin_percent: 0\n"
+      "shells:\n"
+      "  - {name: a, pattern: walker-delta, satellites: 1, planes: 1, phasing: 0, altitude_km: 20000, inclination_deg: 53}\n"
+      "  - {name: b, pattern: walker-delta, satellites: 1, planes: 1, phasing: 0, altitude_km: 20100, inclination_deg: 53}\n";
+  const Design d = read_design_text(text, "overflow.yaml");
+  BudgetOptions one_shell_options = quick();
+  Design one = d;
+  one.shells.pop_back();  // one shell alone is finite: the refusal is about the sum
+  const BudgetResult single = compute_budget(one, one_shell_options);
+  REQUIRE(single.fleet_propellant_kg.has_value());
+  CHECK(std::isfinite(*single.fleet_propellant_kg));
+  CHECK(*single.fleet_propellant_kg > 0.5 * std::numeric_limits<double>::max());
+  try {
+    compute_budget(d, quick());
+    FAIL("expected an InputError");
+  } catch (const InputError& e) {
+    const std::string m = e.what();
+    CHECK(m.find("overflow.yaml: the fleet propellant mass over all shells is not finite (inf)") == 0);
+    CHECK(m.find("a 9.") != std::string::npos);  // each shell's figure is named
+    CHECK(m.find("b 9.") != std::string::npos);
   }
 }
 

@@ -438,6 +438,23 @@ BudgetResult compute_budget(const Design& design, const BudgetOptions& options) 
     if (s.fleet_propellant_kg) fleet_prop += *s.fleet_propellant_kg; else all_propellant = false;
     for (const auto& w : s.warnings) out.warnings.push_back("shell " + s.name + ": " + w);
   }
+  // Each shell's fleet figures are finite (require_finite_figures), but their sum over the shells can still
+  // pass the largest double (found by fuzz/design_fuzz.cpp: two shells of about 1e308 kg each).
+  auto refuse_sum = [&](std::string_view figure, double value, std::string_view unit, auto shell_value) {
+    std::string parts;
+    for (const auto& s : out.shells) {
+      const std::optional<double> v = shell_value(s);
+      if (v) parts += fmt::format("{}{} {:.6g} {}", parts.empty() ? "" : ", ", s.name, *v, unit);
+    }
+    throw InputError(fmt::format("{}: the fleet {} over all shells is not finite ({}): the shells' fleet figures ({}) "
+                                 "sum beyond the largest representable number; expected a larger spacecraft.isp_s or a "
+                                 "smaller budget",
+                                 design.file, figure, value, parts));
+  };
+  if (!std::isfinite(out.fleet_dv_m_s))
+    refuse_sum("delta-v", out.fleet_dv_m_s, "m/s", [](const ShellBudget& s) { return std::optional<double>(s.fleet_dv_m_s); });
+  if (all_propellant && !std::isfinite(fleet_prop))
+    refuse_sum("propellant mass", fleet_prop, "kg", [](const ShellBudget& s) { return s.fleet_propellant_kg; });
   if (all_propellant) out.fleet_propellant_kg = fleet_prop;
   return out;
 }
