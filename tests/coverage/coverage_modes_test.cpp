@@ -76,6 +76,8 @@ void check_same(const CoverageResult& a, const CoverageResult& b) {
   CHECK(a.worst_instant_covered_percent == b.worst_instant_covered_percent);
   CHECK(a.in_view_fraction == b.in_view_fraction);
   CHECK(a.gap_quantiles_s == b.gap_quantiles_s);
+  CHECK(a.events == b.events);  // the same rises and sets, found by either mode
+  CHECK(a.hidden_passes == b.hidden_passes);
 }
 
 }  // namespace

@@ -170,7 +170,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan,
   std::vector<double> fold_gap_start(P * static_cast<size_t>(K - 1), 0.0);
   std::vector<std::int64_t> running(static_cast<size_t>(K), 0);
   std::vector<std::int64_t> worst_q(static_cast<size_t>(K), std::numeric_limits<std::int64_t>::max());
-  std::int64_t pair_tests = 0, distance_tests = 0, fallbacks = 0, hidden_passes = 0;
+  std::int64_t pair_tests = 0, distance_tests = 0, fallbacks = 0, hidden_passes = 0, events = 0;
 
   PositionBuffer buf;
   buf.sats = T;
@@ -197,6 +197,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan,
       x.distance_tests += y.distance_tests;
       x.fallbacks += y.fallbacks;
       x.hidden_passes += y.hidden_passes;
+      x.events += y.events;
       return x;
     };
     Partial part;
@@ -231,6 +232,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan,
     distance_tests += part.distance_tests;
     fallbacks += part.fallbacks;
     hidden_passes += part.hidden_passes;
+    events += part.events;
     for (size_t l = 0; l < nsteps; ++l)
       for (int k = 0; k < K; ++k) {
         const std::int64_t v = part.covered[l * static_cast<size_t>(K) + static_cast<size_t>(k)];
@@ -262,6 +264,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan,
   res.distance_tests = distance_tests;
   res.radius_fallbacks = fallbacks;
   res.hidden_passes = hidden_passes;
+  res.events = events;
   res.track_deviation_bound_deg = track_eps * deg_per_rad;
   res.path_error_bound_m = path_error_m;
   collect_metrics(res, grid, state, hist, worst_cos, worst_q, total_q, smp, st.spec.band_width_deg);

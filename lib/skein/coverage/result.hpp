@@ -99,6 +99,7 @@ struct CoverageResult {
   std::int64_t pair_tests = 0;              // (satellite, point, instant) visibility tests
   std::int64_t distance_tests = 0;          // (satellite, point, instant) central angles for the k-th nearest
   std::int64_t radius_fallbacks = 0;        // point-instants whose k-th nearest lay beyond the search cap (exact scan)
+  std::int64_t events = 0;                  // rises and sets applied to the points' timelines (same in both modes)
   // Passes that begin and end between two sample instants, found by the search between instants; the bounds
   // that search rests on: how far a ground track can stray from its chord over a step, and the position error
   // of the cubic path between two instants.

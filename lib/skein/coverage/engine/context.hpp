@@ -17,6 +17,7 @@ struct Partial {
   std::int64_t distance_tests = 0;  // central-angle evaluations for the k-th nearest satellite
   std::int64_t fallbacks = 0;
   std::int64_t hidden_passes = 0;   // passes found wholly between two instants
+  std::int64_t events = 0;          // rises and sets applied to point timelines
 };
 
 // Everything a row sweep or a point scan reads, and the per-point results it writes.

@@ -75,6 +75,7 @@ void scan_point(const EvaluationContext& sw, size_t p, long c0, long c1, Partial
       }
       Event* events = hidden.data();
       std::sort(events, events + hidden.size(), event_before);
+      acc.events += static_cast<std::int64_t>(hidden.size());
       apply_events(ps, sums, events, events + hidden.size(), t0, t1);
       assert(ps.count == static_cast<int>(fresh.size()));
     }

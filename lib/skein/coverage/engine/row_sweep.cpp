@@ -206,6 +206,7 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
         for (const Event* e = extra; e != extra_end; ++e) ++start[e->point + 1];
         for (size_t i = 0; i < n; ++i) start[i + 1] += start[i];
         sorted.resize(crossings.n + scratch.hidden.size());
+        acc.events += static_cast<std::int64_t>(sorted.size());
         for (const Event* e = events; e != events_end; ++e) sorted[start[e->point]++] = *e;
         for (const Event* e = extra; e != extra_end; ++e) sorted[start[e->point]++] = *e;
         // start[i] is now the end of point i's run.
