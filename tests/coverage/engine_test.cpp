@@ -3,11 +3,13 @@
 // timeline's integrals on a hand-made event list.
 #include <doctest/doctest.h>
 
+#include <algorithm>
 #include <cmath>
 #include <random>
 #include <vector>
 
 #include "skein/coverage/engine/crossings.hpp"
+#include "skein/coverage/engine/metrics.hpp"
 #include "skein/coverage/engine/row_index.hpp"
 #include "skein/coverage/engine/timeline.hpp"
 
@@ -136,4 +138,39 @@ TEST_CASE("timeline: integrals and gaps of a hand-made event list") {
   CHECK(ps.fold_gaps[1].length_s == doctest::Approx(70.0));
   CHECK(ps.fold_gaps[2].fold == 3);
   CHECK(ps.fold_gaps[2].length_s == doctest::Approx(100.0));
+}
+
+TEST_CASE("weighted quantile: the quickselect equals the walk over the sorted sample, ties and all") {
+  // The definition: sort by value, walk the cumulative weight, return the first value where it reaches q of
+  // the total (the same 1e-12 allowance for rounding). Random samples with many ties (values on a coarse
+  // lattice), equal weights (site grids) and random weights (cell grids), several quantiles.
+  std::mt19937_64 rng(20261202);
+  for (int trial = 0; trial < 400; ++trial) {
+    const size_t n = 1 + rng() % 300;
+    const bool equal_weights = trial % 2 == 0;
+    std::vector<std::pair<float, double>> s;
+    for (size_t i = 0; i < n; ++i)
+      s.emplace_back(static_cast<float>(60 * (rng() % 40)), equal_weights ? 0.25 : 1e-4 + (rng() % 1000) * 1e-5);
+    for (double q : {0.0, 0.05, 0.5, 0.95, 1.0}) {
+      std::vector<std::pair<float, double>> sorted = s;
+      std::stable_sort(sorted.begin(), sorted.end(), [](const auto& x, const auto& y) { return x.first < y.first; });
+      double total = 0.0;
+      for (const auto& v : sorted) total += v.second;
+      float want = sorted.back().first;
+      double cum = 0.0;
+      for (const auto& v : sorted) {
+        cum += v.second;
+        if (cum >= q * total * (1.0 - 1e-12)) {
+          want = v.first;
+          break;
+        }
+      }
+      std::vector<std::pair<float, double>> work = s;
+      CAPTURE(trial);
+      CAPTURE(q);
+      CHECK(weighted_quantile(work, q) == want);
+    }
+  }
+  std::vector<std::pair<float, double>> empty;
+  CHECK(weighted_quantile(empty, 0.95) == 0.0);
 }

@@ -7,15 +7,41 @@
 namespace skein::coverage_engine {
 
 double weighted_quantile(std::vector<std::pair<float, double>>& sample, double q) {
-  // sample sorted by value; smallest value whose cumulative weight reaches q of the total.
+  // The smallest value v whose weight at or below v reaches q of the total (the first value where the
+  // cumulative weight of the sorted sample reaches it), found by a three-way quickselect on the value instead
+  // of a sort: expected O(n). Deterministic (median-of-three pivots), so equal inputs give equal results.
+  if (sample.empty()) return 0.0;
   double total = 0.0;
   for (const auto& v : sample) total += v.second;
-  double cum = 0.0;
-  for (const auto& v : sample) {
-    cum += v.second;
-    if (cum >= q * total * (1.0 - 1e-12)) return v.first;
+  const double threshold = q * total * (1.0 - 1e-12);
+  size_t lo = 0, hi = sample.size();
+  double below = 0.0;  // weight of the values known to lie below [lo, hi)
+  while (hi - lo > 1) {
+    const float a = sample[lo].first, b = sample[lo + (hi - lo) / 2].first, c = sample[hi - 1].first;
+    const float pivot = std::max(std::min(a, b), std::min(std::max(a, b), c));
+    // [lo, lt) < pivot, [lt, gt) == pivot, [gt, hi) > pivot (Dijkstra's three-way partition).
+    size_t lt = lo, i = lo, gt = hi;
+    double w_less = 0.0, w_equal = 0.0;
+    while (i < gt) {
+      if (sample[i].first < pivot) {
+        w_less += sample[i].second;
+        std::swap(sample[lt++], sample[i++]);
+      } else if (sample[i].first > pivot) {
+        std::swap(sample[i], sample[--gt]);
+      } else {
+        w_equal += sample[i++].second;
+      }
+    }
+    if (below + w_less >= threshold && lt > lo) {
+      hi = lt;
+    } else if (below + w_less + w_equal >= threshold || gt == hi) {
+      return pivot;
+    } else {
+      below += w_less + w_equal;
+      lo = gt;
+    }
   }
-  return sample.back().first;
+  return sample[lo].first;
 }
 
 namespace {
@@ -34,6 +60,7 @@ GapFigures point_gap_figures(std::vector<float> gaps, double span_s) {
   GapFigures f;
   f.gap_count = static_cast<long>(gaps.size());
   if (gaps.empty()) return f;
+  // Sums in ascending order, as the sorted gaps were summed before (so the figures keep their last bits).
   std::sort(gaps.begin(), gaps.end());
   double sum = 0.0, sq = 0.0;
   for (float g : gaps) {
@@ -94,7 +121,6 @@ CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::ve
     if (w > 0.0) f.mean_response_time_s /= w;
     if (gap_weight > 0.0) {
       f.mean_gap_s = gap_sum / gap_weight;
-      std::stable_sort(pooled.begin(), pooled.end(), [](const auto& x, const auto& y) { return x.first < y.first; });
       f.p95_gap_s = weighted_quantile(pooled, 0.95);
     }
   }

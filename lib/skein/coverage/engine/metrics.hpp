@@ -10,7 +10,8 @@
 
 namespace skein::coverage_engine {
 
-// The weighted quantile q of a sample sorted by value: the smallest value whose cumulative weight reaches q.
+// The weighted quantile q of a sample in any order (reordered in place): the smallest value whose cumulative
+// weight, in ascending order of value, reaches q of the total. Expected O(n) (quickselect); 0 when empty.
 double weighted_quantile(std::vector<std::pair<float, double>>& sample, double q);
 // Area-weighted aggregate of the points `members` (metrics.cpp).
 CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::vector<size_t>& members,
