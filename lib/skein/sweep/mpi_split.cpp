@@ -28,7 +28,7 @@ bool launched() {
   return false;
 }
 
-Session::Session() {
+MpiRankGroup::MpiRankGroup() {
   int provided = 0;
   MPI_Init_thread(nullptr, nullptr, MPI_THREAD_SERIALIZED, &provided);
   if (provided < MPI_THREAD_SERIALIZED) {
@@ -39,9 +39,9 @@ Session::Session() {
   MPI_Comm_size(MPI_COMM_WORLD, &size_);
 }
 
-Session::~Session() { MPI_Finalize(); }
+MpiRankGroup::~MpiRankGroup() { MPI_Finalize(); }
 
-void broadcast(std::string& data) {
+void MpiRankGroup::broadcast_from_root(std::string& data) {
   unsigned long long n = data.size();
   MPI_Bcast(&n, 1, MPI_UNSIGNED_LONG_LONG, 0, MPI_COMM_WORLD);
   data.resize(static_cast<size_t>(n));
@@ -54,7 +54,7 @@ void broadcast(std::string& data) {
   }
 }
 
-void send_row(size_t index, const std::string& row) {
+void MpiRankGroup::send_row(size_t index, const std::string& row) {
   std::vector<char> buf(sizeof(unsigned long long) + row.size());
   const unsigned long long i = index;
   std::memcpy(buf.data(), &i, sizeof i);
@@ -62,10 +62,10 @@ void send_row(size_t index, const std::string& row) {
   MPI_Send(buf.data(), static_cast<int>(buf.size()), MPI_CHAR, 0, tag_row, MPI_COMM_WORLD);
 }
 
-void send_done() { MPI_Send(nullptr, 0, MPI_CHAR, 0, tag_done, MPI_COMM_WORLD); }
+void MpiRankGroup::send_done() { MPI_Send(nullptr, 0, MPI_CHAR, 0, tag_done, MPI_COMM_WORLD); }
 
-void receive_rows(int ranks, const std::function<void(size_t, const std::string&)>& sink) {
-  int remaining = ranks - 1;
+void MpiRankGroup::receive_rows(const RankRowSink& sink) {
+  int remaining = size_ - 1;
   std::vector<char> buf;
   while (remaining > 0) {
     int flag = 0;
@@ -84,15 +84,15 @@ void receive_rows(int ranks, const std::function<void(size_t, const std::string&
       continue;
     }
     unsigned long long i = 0;
-    if (buf.size() < sizeof i) abort(3);
+    if (buf.size() < sizeof i) abort_all(3);
     std::memcpy(&i, buf.data(), sizeof i);
     sink(static_cast<size_t>(i), std::string(buf.data() + sizeof i, buf.size() - sizeof i));
   }
 }
 
-void abort(int code) {
-  MPI_Abort(MPI_COMM_WORLD, code);
-  std::_Exit(code);
+void MpiRankGroup::abort_all(int exit_code) {
+  MPI_Abort(MPI_COMM_WORLD, exit_code);
+  std::_Exit(exit_code);
 }
 
 }  // namespace skein::mpi_split

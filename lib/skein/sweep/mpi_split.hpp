@@ -1,10 +1,11 @@
 #pragma once
-// MPI transport for `mpirun -n N skein sweep`: ranks take layouts round-robin, send each finished row to
-// rank 0, which keeps the journal and writes the output files. Defined only when skein is built with MPI
-// (SKEIN_HAVE_MPI); every MPI call of the project is in mpi_split.cpp.
+// The MPI rank group for `mpirun -n N skein sweep` (rank_group.hpp): ranks take layouts round-robin and send
+// each finished row to rank 0, which keeps the journal and writes the output files. Defined only when skein is
+// built with MPI (SKEIN_HAVE_MPI); every MPI call of the project is in mpi_split.cpp.
 #include <cstddef>
-#include <functional>
 #include <string>
+
+#include "skein/sweep/rank_group.hpp"
 
 namespace skein::mpi_split {
 
@@ -13,28 +14,23 @@ bool launched();
 
 // MPI initialised for the life of the object (thread level MPI_THREAD_SERIALIZED: worker threads send rows
 // one at a time under a lock; on rank 0 only the main thread calls MPI).
-class Session {
+class MpiRankGroup final : public RankGroup {
  public:
-  Session();   // throws std::runtime_error when MPI cannot give MPI_THREAD_SERIALIZED
-  ~Session();  // MPI_Finalize
-  Session(const Session&) = delete;
-  Session& operator=(const Session&) = delete;
-  int rank() const { return rank_; }
-  int size() const { return size_; }
+  MpiRankGroup();            // throws std::runtime_error when MPI cannot give MPI_THREAD_SERIALIZED
+  ~MpiRankGroup() override;  // MPI_Finalize
+  MpiRankGroup(const MpiRankGroup&) = delete;
+  MpiRankGroup& operator=(const MpiRankGroup&) = delete;
+  int rank() const override { return rank_; }
+  int size() const override { return size_; }
+  void broadcast_from_root(std::string& data) override;
+  void send_row(size_t index, const std::string& row) override;
+  void send_done() override;
+  // Polls, so that rank 0's own worker threads keep the cores.
+  void receive_rows(const RankRowSink& sink) override;
+  [[noreturn]] void abort_all(int exit_code) override;  // MPI_Abort
 
  private:
   int rank_ = 0, size_ = 1;
 };
-
-// Rank 0's `data` replaces every other rank's.
-void broadcast(std::string& data);
-// To rank 0: one finished row, and the end of this rank's rows.
-void send_row(size_t index, const std::string& row);
-void send_done();
-// On rank 0: receive rows from ranks 1..ranks-1 until each has sent done (polling, so that rank 0's own
-// worker threads keep the cores). `sink` gets each row.
-void receive_rows(int ranks, const std::function<void(size_t index, const std::string& row)>& sink);
-// End every rank (after an error on one of them).
-[[noreturn]] void abort(int code);
 
 }  // namespace skein::mpi_split
