@@ -6,6 +6,7 @@
 #include <filesystem>
 #include <string>
 
+#include "skein/input/sweep_file.hpp"
 #include "skein/sweep/layouts.hpp"
 #include "skein/sweep/sweep_run.hpp"
 

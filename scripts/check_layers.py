@@ -19,8 +19,8 @@ LAYERS = [
     ["design"],                              # the domain types of a design and its blocks; constellation expansion
     ["coverage", "budget", "drift", "export", "io"],
     ["report"],
-    ["input"],                               # the readers of design files and their blocks (YAML at the edge)
-    ["sweep"],                               # trade sweeps; reads sweep files through input/
+    ["sweep"],                               # trade sweeps (layouts, evaluation, journal, ranks, outputs)
+    ["input"],                               # the readers of design and sweep files and their blocks (YAML at the edge)
 ]
 RANK = {folder: i for i, layer in enumerate(LAYERS) for folder in layer}
 INCLUDE = re.compile(r'^\s*#\s*include\s+[<"]([^>"]+)[>"]')

@@ -6,7 +6,7 @@
 
 #include "skein/input/yaml_reader.hpp"
 #include "skein/error.hpp"
-#include "skein/sweep/sweep_spec.hpp"
+#include "skein/input/sweep_file.hpp"
 
 using namespace skein;
 

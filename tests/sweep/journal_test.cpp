@@ -11,6 +11,7 @@
 #include <sstream>
 #include <string>
 
+#include "skein/input/sweep_file.hpp"
 #include "skein/error.hpp"
 #include "skein/sweep/checksum.hpp"
 #include "skein/sweep/journal.hpp"

@@ -13,6 +13,7 @@
 #include <string>
 #include <vector>
 
+#include "skein/input/sweep_file.hpp"
 #include "skein/sweep/ranking.hpp"
 #include "skein/sweep/results_rows.hpp"
 #include "skein/sweep/sweep_outputs.hpp"

@@ -9,7 +9,7 @@
 #include "skein/sweep/evaluate_layout.hpp"
 #include "skein/sweep/layouts.hpp"
 #include "skein/sweep/results_rows.hpp"
-#include "skein/sweep/sweep_spec.hpp"
+#include "skein/input/sweep_file.hpp"
 
 using namespace skein;
 

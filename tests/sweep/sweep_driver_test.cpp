@@ -20,6 +20,7 @@
 #include <vector>
 
 #include "skein/error.hpp"
+#include "skein/input/sweep_file.hpp"
 #include "skein/sweep/journal.hpp"
 #include "skein/sweep/sweep_driver.hpp"
 #include "skein/sweep/sweep_run.hpp"
@@ -93,6 +94,7 @@ const std::string& sweep_file() {
 SweepRunOptions options_for(const fs::path& out, bool resume = false) {
   SweepRunOptions o;
   o.folder.sweep_file = sweep_file();
+  o.read_sweep = [](const std::string& file) { return read_sweep_file(file); };
   o.folder.resume = resume;
   o.out_dir = out.string();
   return o;

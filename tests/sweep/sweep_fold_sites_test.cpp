@@ -8,6 +8,7 @@
 #include <string>
 #include <variant>
 
+#include "skein/input/sweep_file.hpp"
 #include "skein/coverage/evaluate.hpp"
 #include "skein/error.hpp"
 #include "skein/sweep/evaluate_layout.hpp"

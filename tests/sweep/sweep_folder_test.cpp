@@ -13,6 +13,7 @@
 #include <string>
 #include <vector>
 
+#include "skein/input/sweep_file.hpp"
 #include "skein/error.hpp"
 #include "skein/io/folder_write.hpp"
 #include "skein/sweep/journal.hpp"

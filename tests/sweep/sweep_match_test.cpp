@@ -11,6 +11,7 @@
 #include <string>
 #include <variant>
 
+#include "skein/input/sweep_file.hpp"
 #include "skein/budget/budget.hpp"
 #include "skein/coverage/evaluate.hpp"
 #include "skein/input/design_file.hpp"

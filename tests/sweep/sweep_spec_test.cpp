@@ -8,7 +8,7 @@
 #include "skein/budget/budget.hpp"
 #include "skein/sweep/evaluate_layout.hpp"
 #include "skein/sweep/layouts.hpp"
-#include "skein/sweep/sweep_spec.hpp"
+#include "skein/input/sweep_file.hpp"
 
 using namespace skein;
 

@@ -108,11 +108,11 @@ LayoutSet expand_layouts(const Sweep& sweep, double max_layouts) {
   if (combos > hard_max_layouts)
     throw InputError(fmt::format("{}: axes: the axes combine into {:.0f} layouts, above the hard limit of {:.0f}; "
                                  "expected fewer values on some axis",
-                                 sweep.axes_location, combos, hard_max_layouts));
+                                 sweep.file, combos, hard_max_layouts));
   if (combos > max_layouts)
     throw InputError(fmt::format("{}: axes: the axes combine into {:.0f} layouts, above the limit of {:.0f}; expected "
                                  "fewer values, or pass --force to run them all",
-                                 sweep.axes_location, combos, max_layouts));
+                                 sweep.file, combos, max_layouts));
   std::vector<std::vector<RawChoice>> raw;
   for (const ShellAxes& s : ax.shells) raw.push_back(shell_choices(sweep, s));
   std::vector<bool> varied(sweep.base.shells.size(), false);
@@ -168,7 +168,7 @@ LayoutSet expand_layouts(const Sweep& sweep, double max_layouts) {
     throw InputError(fmt::format("{}: axes: no valid layout: {} combinations skipped (P not dividing T: {}, F outside "
                                  "0..P-1: {}, no sun-synchronous inclination: {}, fold above the satellite count: {}); "
                                  "expected at least one valid combination",
-                                 sweep.axes_location, set.skipped.total(), set.skipped.planes_not_dividing,
+                                 sweep.file, set.skipped.total(), set.skipped.planes_not_dividing,
                                  set.skipped.phasing_out_of_range, set.skipped.no_sun_synchronous,
                                  set.skipped.fold_above_satellites));
   return set;

@@ -1,6 +1,7 @@
 #include "skein/sweep/sweep_driver.hpp"
 
 #include <algorithm>
+#include <cassert>
 #include <exception>
 #include <filesystem>
 #include <map>
@@ -70,7 +71,8 @@ SweepRunResult run_sweep(const SweepRunOptions& options, RankGroup& group, const
   const LayoutEvaluationOptions& eval = options.evaluation;
   double estimate_s = 0.0;
   try {
-    sweep = read_sweep_file(options.folder.sweep_file);
+    assert(options.read_sweep && "SweepRunOptions::read_sweep is required");
+    sweep = options.read_sweep(options.folder.sweep_file);
     set = expand_layouts(sweep, eval.force ? hard_max_layouts : default_max_layouts);
     estimate_s = estimate_sweep_seconds(sweep, set, eval);
   } catch (const InputError&) {

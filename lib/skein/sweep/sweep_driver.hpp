@@ -20,6 +20,9 @@ namespace skein {
 
 struct SweepRunOptions {
   SweepFolderOptions folder;            // the sweep file, and the resume choices
+  // Reads the sweep file (called with folder.sweep_file on every rank): the input edge's reader
+  // (input/sweep_file.hpp), given by the caller so that this layer does not read files itself. Required.
+  std::function<Sweep(const std::string& sweep_file)> read_sweep;
   std::string out_dir;                  // the output folder
   LayoutEvaluationOptions evaluation;   // coverage mode and --force (also lifts the layout limit)
 };

@@ -1,8 +1,9 @@
 #pragma once
-// A sweep file: the base design, the shells to vary and each one's axes (T, P, F, pattern, altitude,
-// inclination or sun-synchronous with node local times), the design-wide axes (elevation mask, nadir
-// half-angle, spacecraft drag area and dry mass, mission life, solar activity level), the coverage requirement
-// and the cost figures the best front is ranked by. The file format is documented in the README ("Trade sweeps").
+// A sweep: the base design, the shells to vary and each one's axes (T, P, F, pattern, altitude, inclination or
+// sun-synchronous with node local times), the design-wide axes (elevation mask, nadir half-angle, spacecraft
+// drag area and dry mass, mission life, solar activity level), the coverage requirement and the cost figures
+// the best front is ranked by. Read from a sweep file by input/sweep_file.hpp (the format is documented in the
+// README, "Trade sweeps"); these types carry no YAML positions.
 #include <cstddef>
 #include <optional>
 #include <string>
@@ -79,16 +80,9 @@ struct Sweep {
   Design base;                 // the base design, with the sweep's coverage block (when given) in place
   size_t shell_index = 0;      // the first varied shell (its per-satellite figures are the rows' per-satellite ones)
   SweepAxes axes;
-  std::string axes_location;   // "FILE:LINE:COL" of the axes block, for messages about the whole expansion
   Requirement requirement;
   std::vector<CostFigure> costs;  // at least one; the first is the plot's x axis
   std::string fingerprint;     // hash of the sweep and base design texts and the program version (for resume)
 };
-
-// Read and validate a sweep file and its base design. Throws InputError naming file:line:column and what was
-// expected; an axis that expands to no value is an error.
-Sweep read_sweep_file(const std::string& path);
-// The same from text; the base design path is resolved against `folder`.
-Sweep read_sweep_text(const std::string& text, const std::string& name, const std::string& folder);
 
 }  // namespace skein
