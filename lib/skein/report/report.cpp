@@ -9,6 +9,7 @@
 #include "skein/error.hpp"
 #include "skein/export/geojson.hpp"
 #include "skein/export/oem.hpp"
+#include "skein/drift/beta_eclipse.hpp"
 #include "skein/drift/drift_summary.hpp"
 #include "skein/report/budget_tables.hpp"
 #include "skein/report/coverage_tables.hpp"
@@ -148,6 +149,7 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
   rep.budget = compute_budget(design, options.budget);
   const auto sats = expand_constellation(design);
   const DriftResult drift = compute_drift(design);
+  const BetaEclipseResult beta_eclipse = compute_beta_eclipse(design);
 
   std::vector<NamedTable> tables = {
       {"shells", shell_table(design)},
@@ -155,6 +157,7 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
       {"satellites", satellite_table(design, sats)},
       {"drift", drift_table(drift)},
       {"differential_drift", differential_drift_table(drift)},
+      {"beta_eclipse", beta_eclipse_table(beta_eclipse)},
       {"coverage_overview", coverage_overview_table(rep.coverage)},
       {"coverage_folds", coverage_fold_table(rep.coverage)},
       {"coverage_bands", coverage_band_table(rep.coverage)},
@@ -186,6 +189,9 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
   for (const auto& sh : rep.budget.shells)
     figures.push_back({"decay_" + sh.name, "Natural decay of the mean altitude of shell " + sh.name + " under each solar level",
                        decay_curves_svg(sh, design.earth.radius_km)});
+  figures.push_back({"beta_angle", "Beta angle of each plane over the year from the epoch", beta_angle_svg(beta_eclipse)});
+  figures.push_back({"eclipse_minutes", "Eclipse minutes per orbit of each plane over the year (cylindrical shadow)",
+                     eclipse_minutes_svg(beta_eclipse)});
   figures.push_back({"ground_tracks", "Ground tracks of one plane over one day", ground_track_svg(design)});
 
   std::vector<std::string> warnings = rep.budget.warnings;
