@@ -93,8 +93,10 @@ Table differential_drift_table(const DriftResult& drift) {
 
 Table beta_eclipse_table(const BetaEclipseResult& result) {
   Table t;
-  t.title = fmt::format("Beta angle and eclipses per plane, {:g} days from the epoch every {:g} day(s) (cylindrical shadow)",
-                        result.span_days, result.step_days);
+  t.title = fmt::format("Beta angle and eclipses per plane, days 0 to {:g} from the epoch ({}, cylindrical shadow)",
+                        result.span_days,
+                        result.step_days == 1.0 ? std::string("daily samples")
+                                                : fmt::format("samples every {:g} days", result.step_days));
   t.columns = {{"shell", "shell", "", 0},
                {"plane", "plane", "", 0},
                {"raan_deg", "node at epoch", "deg", 2},
