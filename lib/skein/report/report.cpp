@@ -1,5 +1,6 @@
 #include "skein/report/report.hpp"
 
+#include <algorithm>
 #include <cmath>
 
 #include <fmt/format.h>
@@ -98,8 +99,12 @@ std::string summary_markdown(const Design& d, const std::vector<NamedTable>& tab
 // written, within -20 %/+25 %): an OEM data line (epoch and six numbers, 99 bytes measured), an OEM file's
 // header, a satellite's rows in the satellite table (CSV and JSON, 370 to 420 measured), and a grid point's
 // rows in the point table, the GeoJSON cells and the two maps, each drawn in its SVG and again in index.html
-// (1680 to 1720 measured at fold 1 to 3).
+// (1680 to 1720 measured at fold 1 to 3). A plane drawn in the beta and eclipse figures: 4700 bytes per figure
+// (365 daily points) measured on designs/demo.yaml, times two figures, each in its SVG and in index.html; a
+// plane's row of the beta and eclipse table in CSV, JSON and HTML, about 600 bytes.
 constexpr double oem_line_bytes = 100.0;
+constexpr double beta_eclipse_drawn_plane_bytes = 4.0 * 4800.0;
+constexpr double beta_eclipse_plane_row_bytes = 600.0;
 constexpr double oem_header_bytes = 1000.0;
 constexpr double satellite_table_bytes = 500.0;
 constexpr double point_bytes = 1800.0;
@@ -113,10 +118,13 @@ ReportSizeEstimate estimate_report_size(const Design& design, const ReportOption
   const double levels = 4.0;  // solar levels of the decay tables, at most
   const double shells = static_cast<double>(design.shells.size());
   ReportSizeEstimate e;
-  // summary, page; 14 tables and the decay tables in CSV and JSON; up to 7 plots and one per shell; GeoJSON; OEM.
-  e.files = 2.0 + 2.0 * (14.0 + shells * levels) + 7.0 + shells + 1.0 + sats;
+  double planes = 0.0;
+  for (const Shell& sh : design.shells) planes += sh.planes;
+  // summary, page; 15 tables and the decay tables in CSV and JSON; up to 9 plots and one per shell; GeoJSON; OEM.
+  e.files = 2.0 + 2.0 * (15.0 + shells * levels) + 9.0 + shells + 1.0 + sats;
   e.bytes = fixed_bytes + sats * (oem_header_bytes + samples * oem_line_bytes + satellite_table_bytes) +
-            points * point_bytes;
+            points * point_bytes + std::min(planes, static_cast<double>(max_beta_eclipse_series)) * beta_eclipse_drawn_plane_bytes +
+            planes * beta_eclipse_plane_row_bytes;
   return e;
 }
 

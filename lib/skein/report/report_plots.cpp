@@ -181,7 +181,7 @@ std::string beta_eclipse_svg(const BetaEclipseResult& r, const std::string& titl
 
 std::string beta_angle_svg(const BetaEclipseResult& r) {
   return beta_eclipse_svg(r, "Beta angle per plane", "beta angle (deg)",
-                          [](const BetaEclipseSample& x) { return x.beta_deg; }, std::nullopt, std::nullopt);
+                          [](const BetaEclipseSample& x) { return x.beta_deg; }, -90.0, 90.0);
 }
 
 std::string eclipse_minutes_svg(const BetaEclipseResult& r) {
