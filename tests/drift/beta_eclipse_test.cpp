@@ -312,6 +312,22 @@ TEST_CASE("beta and eclipse: span, step and orbit samples are checked before any
   CHECK(message({365.0, std::nan(""), 720}) == "beta and eclipse step = nan days: expected a positive number of days");
   CHECK(message({365.0, 0.001, 720}).find("365001 samples per plane, above the limit of 100000") != std::string::npos);
   CHECK(message({365.0, 1.0, 4}) == "beta and eclipse orbit samples = 4: expected 8 to 100000");
+  // The eccentric work is bounded before it starts: 16000 eccentric planes x 366 days x 720 samples = 4.2e9 > 4e9.
+  const Design many = read_design_text(
+      "name: Kestrel many planes\nepoch: 2026-01-01T00:00:00Z\nspacecraft:\n  dry_mass_kg: 100\n  drag_area_m2: 1.0\n"
+      "  drag_coefficient: 2.2\nshells:\n"
+      "  - name: wide\n    pattern: walker-delta\n    satellites: 16000\n    planes: 16000\n    phasing: 0\n"
+      "    semi_major_axis_km: 7300\n    eccentricity: 0.02\n    inclination_deg: 63.4\n",
+      "many.yaml");
+  std::string refused;
+  try {
+    compute_beta_eclipse(many);
+  } catch (const InputError& e) {
+    refused = e.what();
+  }
+  CHECK(refused == "beta and eclipse: 5856000 eccentric plane-days sampled 720 times per orbit, above the limit of "
+                   "4000000000 shadow samples (eclipses of eccentric orbits are found along each orbit); expected "
+                   "fewer eccentric planes");
   const BetaEclipseResult r = compute_beta_eclipse(d, {10.0, 2.5, 720});
   REQUIRE(r.shells.size() == 3);
   CHECK(r.shells[0].planes.size() == 3);

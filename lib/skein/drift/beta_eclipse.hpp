@@ -9,7 +9,7 @@
 // Applications", 4th ed. (2013), sec. 5.3 (the cylindrical shadow test; MEMORY, not re-read).
 //
 // Circular orbits (e = 0) use the closed form below. Eccentric orbits (e > 0) are sampled: the shadow
-// condition is evaluated at evenly spaced mean anomalies over one orbit (with that day's node and argument of
+// condition is evaluated at evenly spaced true anomalies over one orbit (with that day's node and argument of
 // perigee) and every change of state is refined by bisection, so the result is the cylinder test itself on the
 // Kepler ellipse; an eclipse shorter than one sample spacing can be missed (see BetaEclipseOptions).
 #include <Eigen/Core>
@@ -24,7 +24,7 @@ namespace skein {
 struct BetaEclipseOptions {
   double span_days = 365.0;     // from the epoch; samples at 0, step, 2 step, ... <= span
   double step_days = 1.0;       // sample spacing
-  int orbit_samples = 720;      // e > 0 only: shadow samples per orbit before refinement (0.5 deg of mean anomaly)
+  int orbit_samples = 720;      // e > 0 only: shadow samples per orbit before refinement (0.5 deg of true anomaly)
 };
 
 struct BetaEclipseSample {
@@ -81,9 +81,10 @@ double beta_angle_rad(double i_rad, double raan_rad, const Eigen::Vector3d& sun_
 double circular_eclipse_fraction(double r_km, double earth_radius_km, double beta_rad);
 
 // The cylindrical shadow (radius earth.radius_km) over one orbit of the Kepler ellipse el (its node and perigee
-// as given, el.mean_anomaly_rad ignored; mean anomaly is the time variable), sampled at `samples` evenly spaced mean anomalies and refined by bisection to 1e-10 rad
-// at every change. Returns the shares of one orbit (in mean anomaly, hence in time) in shadow in total and in
-// the longest single arc. Works for e = 0 too (used by the tests against the closed form).
+// as given, el.mean_anomaly_rad ignored), sampled at `samples` evenly spaced true anomalies and refined by
+// bisection to 1e-10 rad of true anomaly at every change; the changes are turned into mean anomalies (time).
+// Returns the shares of one orbit (in mean anomaly, hence in time) in shadow in total and in the longest single
+// arc. Works for e = 0 too (used by the tests against the closed form).
 struct ShadowShares {
   double total = 0.0;
   double longest_arc = 0.0;
