@@ -12,7 +12,6 @@
 #include "skein/constants.hpp"
 #include "skein/design/plane_nodes.hpp"
 #include "skein/error.hpp"
-#include "skein/orbit/propagate.hpp"
 #include "skein/orbit/secular.hpp"
 #include "skein/time/sun.hpp"
 
