@@ -1,4 +1,4 @@
-// skein drift DESIGN.yaml: J2 secular drift figures per shell and between shells.
+// skein drift DESIGN.yaml: J2 secular drift figures per shell and between shells; beta angle and eclipses per plane.
 #include <memory>
 #include <regex>
 
@@ -18,7 +18,8 @@ void add_drift_command(CLI::App& app) {
   auto opt = std::make_shared<Options>();
   CLI::App* cmd = app.add_subcommand(
       "drift", "Print per shell the J2 node and perigee rates, periods, sun-synchronous inclination, LTAN drift, "
-               "node-rate sensitivities and differential node drift between shells");
+               "node-rate sensitivities and differential node drift between shells, and per plane the beta angle "
+               "range and the longest eclipse over one year from the epoch");
   cmd->add_option("design", opt->design, "Design file (YAML)")->required();
   cmd->add_option("--repeat", opt->repeat,
                   "Also solve the altitude of a repeat ground track of R revolutions in D days, given as R/D (e.g. 29/2), "
@@ -35,8 +36,9 @@ void add_drift_command(CLI::App& app) {
     }
     const Design design = read_design_file(opt->design);
     const DriftResult drift = compute_drift(design, options);
+    const BetaEclipseResult beta_eclipse = compute_beta_eclipse(design);
     const Table shells = drift_table(drift), pairs = differential_drift_table(drift),
-                planes = plane_table(design);
+                planes = plane_table(design), eclipses = beta_eclipse_table(beta_eclipse);
     if (format_of(opt->format) == OutputFormat::json) {
       nlohmann::ordered_json j;
       j["design"] = design.name;
@@ -44,12 +46,14 @@ void add_drift_command(CLI::App& app) {
       j["shells"] = rows_to_json(shells);
       j["planes"] = rows_to_json(planes);
       j["differential_drift"] = rows_to_json(pairs);
+      j["beta_eclipse"] = rows_to_json(eclipses);
       print_stdout(j.dump(2) + "\n");
     } else if (format_of(opt->format) == OutputFormat::csv) {
       print_stdout(render_csv(shells));
     } else {
       print_stdout(render_text(shells) + "\n" + render_text(planes));
       if (!drift.pairs.empty()) print_stdout("\n" + render_text(pairs));
+      print_stdout("\n" + render_text(eclipses));
     }
   });
 }

@@ -175,6 +175,7 @@ def compare_rows(stem, command_rows, key_name="name"):
 
 drift = json.loads(run("drift", design, "--format", "json"))
 compare_rows("drift", drift["shells"])
+compare_rows("beta_eclipse", drift["beta_eclipse"])
 coverage = json.loads(run("coverage", design, "--format", "json"))
 compare_rows("coverage_overview", [coverage])
 budget = json.loads(run("budget", design, "--format", "json"))

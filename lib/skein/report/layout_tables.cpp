@@ -1,5 +1,7 @@
 #include "skein/report/layout_tables.hpp"
 
+#include <fmt/format.h>
+
 #include "skein/constants.hpp"
 #include "skein/design/plane_nodes.hpp"
 
@@ -86,6 +88,30 @@ Table differential_drift_table(const DriftResult& drift) {
                {"days_per_full_turn", "days per 360 deg", "day", 1}};
   for (const auto& p : drift.pairs)
     t.add_row({p.shell_a, p.shell_b, p.relative_raan_rate_deg_per_day, opt(p.days_per_full_turn)});
+  return t;
+}
+
+Table beta_eclipse_table(const BetaEclipseResult& result) {
+  Table t;
+  t.title = fmt::format("Beta angle and eclipses per plane, days 0 to {:g} from the epoch ({}, cylindrical shadow)",
+                        result.span_days,
+                        result.step_days == 1.0 ? std::string("daily samples")
+                                                : fmt::format("samples every {:g} days", result.step_days));
+  t.columns = {{"shell", "shell", "", 0},
+               {"plane", "plane", "", 0},
+               {"raan_deg", "node at epoch", "deg", 2},
+               {"beta_min_deg", "beta min", "deg", 2},
+               {"beta_max_deg", "beta max", "deg", 2},
+               {"longest_eclipse_min", "longest eclipse", "min", 2},
+               {"longest_eclipse_day", "on day", "day", 1},
+               {"max_eclipse_percent", "most shadow", "% of orbit", 2},
+               {"eclipse_free_days", "eclipse-free", "day", 1},
+               {"eclipse_method", "eclipse method", "", 0}};
+  for (const auto& sh : result.shells)
+    for (const auto& p : sh.planes)
+      t.add_row({sh.name, static_cast<long>(p.plane + 1), p.raan0_deg, p.beta_min_deg, p.beta_max_deg,
+                 p.longest_eclipse_min, p.longest_eclipse_day, 100.0 * p.max_eclipse_fraction, p.eclipse_free_days,
+                 std::string(sh.circular ? "circular closed form" : "sampled ellipse")});
   return t;
 }
 

@@ -4,6 +4,7 @@
 #include <vector>
 
 #include "skein/design/constellation.hpp"
+#include "skein/drift/beta_eclipse.hpp"
 #include "skein/drift/drift_summary.hpp"
 #include "skein/report/table.hpp"
 
@@ -15,5 +16,7 @@ Table shell_table(const Design& design);
 Table plane_table(const Design& design);
 Table drift_table(const DriftResult& drift);
 Table differential_drift_table(const DriftResult& drift);
+// One row per plane: beta range, longest eclipse and its day, largest shadow share, eclipse-free days.
+Table beta_eclipse_table(const BetaEclipseResult& result);
 
 }  // namespace skein

@@ -1,5 +1,6 @@
 #include "skein/report/report.hpp"
 
+#include <algorithm>
 #include <cmath>
 
 #include <fmt/format.h>
@@ -9,6 +10,7 @@
 #include "skein/error.hpp"
 #include "skein/export/geojson.hpp"
 #include "skein/export/oem.hpp"
+#include "skein/drift/beta_eclipse.hpp"
 #include "skein/drift/drift_summary.hpp"
 #include "skein/report/budget_tables.hpp"
 #include "skein/report/coverage_tables.hpp"
@@ -23,8 +25,12 @@ namespace skein {
 // written, within -20 %/+25 %): an OEM data line (epoch and six numbers, 99 bytes measured), an OEM file's
 // header, a satellite's rows in the satellite table (CSV and JSON, 370 to 420 measured), and a grid point's
 // rows in the point table, the GeoJSON cells and the two maps, each drawn in its SVG and again in index.html
-// (1680 to 1720 measured at fold 1 to 3).
+// (1680 to 1720 measured at fold 1 to 3). A plane drawn in the beta and eclipse figures: 4700 bytes per figure
+// (365 daily points) measured on designs/demo.yaml, times two figures, each in its SVG and in index.html; a
+// plane's row of the beta and eclipse table in CSV, JSON and HTML, about 600 bytes.
 constexpr double oem_line_bytes = 100.0;
+constexpr double beta_eclipse_drawn_plane_bytes = 4.0 * 4800.0;
+constexpr double beta_eclipse_plane_row_bytes = 600.0;
 constexpr double oem_header_bytes = 1000.0;
 constexpr double satellite_table_bytes = 500.0;
 constexpr double point_bytes = 1800.0;
@@ -38,10 +44,13 @@ ReportSizeEstimate estimate_report_size(const Design& design, const ReportOption
   const double levels = 4.0;  // solar levels of the decay tables, at most
   const double shells = static_cast<double>(design.shells.size());
   ReportSizeEstimate e;
-  // summary, page; 14 tables and the decay tables in CSV and JSON; up to 7 plots and one per shell; GeoJSON; OEM.
-  e.files = 2.0 + 2.0 * (14.0 + shells * levels) + 7.0 + shells + 1.0 + sats;
+  double planes = 0.0;
+  for (const Shell& sh : design.shells) planes += sh.planes;
+  // summary, page; 15 tables and the decay tables in CSV and JSON; up to 9 plots and one per shell; GeoJSON; OEM.
+  e.files = 2.0 + 2.0 * (15.0 + shells * levels) + 9.0 + shells + 1.0 + sats;
   e.bytes = fixed_bytes + sats * (oem_header_bytes + samples * oem_line_bytes + satellite_table_bytes) +
-            points * point_bytes;
+            points * point_bytes + std::min(planes, static_cast<double>(max_beta_eclipse_series)) * beta_eclipse_drawn_plane_bytes +
+            planes * beta_eclipse_plane_row_bytes;
   return e;
 }
 
@@ -74,6 +83,7 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
   rep.budget = compute_budget(design, options.budget);
   const auto sats = expand_constellation(design);
   const DriftResult drift = compute_drift(design);
+  const BetaEclipseResult beta_eclipse = compute_beta_eclipse(design);
 
   std::vector<NamedTable> tables = {
       {"shells", shell_table(design)},
@@ -81,6 +91,7 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
       {"satellites", satellite_table(design, sats)},
       {"drift", drift_table(drift)},
       {"differential_drift", differential_drift_table(drift)},
+      {"beta_eclipse", beta_eclipse_table(beta_eclipse)},
       {"coverage_overview", coverage_overview_table(rep.coverage)},
       {"coverage_folds", coverage_fold_table(rep.coverage)},
       {"coverage_bands", coverage_band_table(rep.coverage)},
@@ -112,6 +123,9 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
   for (const auto& sh : rep.budget.shells)
     figures.push_back({"decay_" + sh.name, "Natural decay of the mean altitude of shell " + sh.name + " under each solar level",
                        decay_curves_svg(sh, design.earth.radius_km)});
+  figures.push_back({"beta_angle", "Beta angle of each plane over the year from the epoch", beta_angle_svg(beta_eclipse)});
+  figures.push_back({"eclipse_minutes", "Eclipse minutes per orbit of each plane over the year (cylindrical shadow)",
+                     eclipse_minutes_svg(beta_eclipse)});
   figures.push_back({"ground_tracks", "Ground tracks of one plane over one day", ground_track_svg(design)});
 
   std::vector<std::string> warnings = rep.budget.warnings;

@@ -1,6 +1,8 @@
 #include "skein/report/report_plots.hpp"
 
+#include <algorithm>
 #include <cmath>
+#include <optional>
 #include <limits>
 
 #include <fmt/format.h>
@@ -135,6 +137,60 @@ std::string ground_track_svg(const Design& d) {
   return line_plot_svg({fmt::format("Ground tracks of plane 1 of shell {} over one day", d.shells.front().name),
                         "longitude (deg)", "geodetic latitude (deg)", -180.0, 180.0, -90.0, 90.0},
                        series);
+}
+
+namespace {
+
+// The planes drawn in the beta and eclipse figures: all when they fit the legend, else evenly spaced ones
+// (the first and last included).
+std::vector<std::pair<const ShellBetaEclipse*, const PlaneBetaEclipse*>> drawn_planes(const BetaEclipseResult& r) {
+  std::vector<std::pair<const ShellBetaEclipse*, const PlaneBetaEclipse*>> all, out;
+  for (const auto& sh : r.shells)
+    for (const auto& p : sh.planes) all.push_back({&sh, &p});
+  if (all.size() <= max_beta_eclipse_series) return all;
+  for (size_t k = 0; k < max_beta_eclipse_series; ++k)
+    out.push_back(all[k * (all.size() - 1) / (max_beta_eclipse_series - 1)]);
+  return out;
+}
+
+std::string beta_eclipse_svg(const BetaEclipseResult& r, const std::string& title, const std::string& y_label,
+                             double (*value)(const BetaEclipseSample&), std::optional<double> y_min,
+                             std::optional<double> y_max) {
+  std::vector<Series> series;
+  size_t planes = 0;
+  for (const auto& sh : r.shells) planes += sh.planes.size();
+  const auto drawn = drawn_planes(r);
+  for (const auto& [sh, p] : drawn) {
+    Series s{fmt::format("{} plane {}", sh->name, p->plane + 1), {}, {}, SeriesStyle::line};
+    for (const auto& x : p->samples) {
+      s.x.push_back(x.day);
+      s.y.push_back(value(x));
+    }
+    series.push_back(std::move(s));
+  }
+  PlotAxes a{drawn.size() < planes ? fmt::format("{} ({} of {} planes)", title, drawn.size(), planes) : title,
+             "days from the epoch", y_label};
+  a.x_min = 0.0;
+  a.x_max = r.span_days;
+  a.y_min = y_min;
+  a.y_max = y_max;
+  return line_plot_svg(a, series);
+}
+
+}  // namespace
+
+std::string beta_angle_svg(const BetaEclipseResult& r) {
+  return beta_eclipse_svg(r, "Beta angle per plane", "beta angle (deg)",
+                          [](const BetaEclipseSample& x) { return x.beta_deg; }, -90.0, 90.0);
+}
+
+std::string eclipse_minutes_svg(const BetaEclipseResult& r) {
+  double most = 0.0;
+  for (const auto& sh : r.shells)
+    for (const auto& p : sh.planes) most = std::max(most, p.longest_eclipse_min);
+  return beta_eclipse_svg(r, "Eclipse per orbit (cylindrical shadow)", "eclipse per orbit (min)",
+                          [](const BetaEclipseSample& x) { return x.eclipse_min_per_orbit; }, 0.0,
+                          most > 0.0 ? std::nullopt : std::optional<double>(1.0));
 }
 
 }  // namespace skein

@@ -5,6 +5,7 @@
 #include "skein/budget/budget.hpp"
 #include "skein/coverage/result.hpp"
 #include "skein/design/design.hpp"
+#include "skein/drift/beta_eclipse.hpp"
 
 namespace skein {
 
@@ -24,5 +25,10 @@ std::string dv_budget_svg(const BudgetResult& b);
 std::string decay_curves_svg(const ShellBudget& shell, double earth_radius_km);
 // Sub-satellite tracks of the first plane of the first shell over one day.
 std::string ground_track_svg(const Design& d);
+// Beta angle (deg) and eclipse minutes per orbit against days from the epoch, one series per plane (at most
+// max_beta_eclipse_series planes, evenly chosen, when there are more: the legend's room).
+inline constexpr size_t max_beta_eclipse_series = 8;
+std::string beta_angle_svg(const BetaEclipseResult& r);
+std::string eclipse_minutes_svg(const BetaEclipseResult& r);
 
 }  // namespace skein
