@@ -51,6 +51,7 @@ std::string summary_markdown(const Design& d, const std::vector<NamedTable>& tab
                                {"planes", ""},
                                {"drift", "J2 drift"},
                                {"differential_drift", ""},
+                               {"beta_eclipse", ""},
                                {"coverage_overview", "Coverage"},
                                {"coverage_folds", ""},
                                {"coverage_bands", ""},
