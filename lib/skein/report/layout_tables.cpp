@@ -103,9 +103,9 @@ Table beta_eclipse_table(const BetaEclipseResult& result) {
                {"beta_min_deg", "beta min", "deg", 2},
                {"beta_max_deg", "beta max", "deg", 2},
                {"longest_eclipse_min", "longest eclipse", "min", 2},
-               {"longest_eclipse_day", "on day", "day", 1},
+               {"longest_eclipse_day", "on day", "", 0},
                {"max_eclipse_percent", "most shadow", "% of orbit", 2},
-               {"eclipse_free_days", "eclipse-free", "day", 1},
+               {"eclipse_free_days", "eclipse-free", "days", 0},
                {"eclipse_method", "eclipse method", "", 0}};
   for (const auto& sh : result.shells)
     for (const auto& p : sh.planes)
