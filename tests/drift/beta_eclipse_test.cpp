@@ -15,6 +15,7 @@
 #include "skein/constants.hpp"
 #include "skein/design/constellation.hpp"
 #include "skein/drift/beta_eclipse.hpp"
+#include "../time/erfa_sun.hpp"
 #include "skein/error.hpp"
 #include "skein/input/design_file.hpp"
 #include "skein/orbit/propagate.hpp"
@@ -39,19 +40,8 @@ Design test_design() {
       "eclipse.yaml");
 }
 
-// Reference Sun direction from ERFA, true equator and equinox of date (as in tests/time/sun_test.cpp): eraEpv00
-// gives the Earth's heliocentric position, the geocentric Sun is its negative (light time neglected), eraPnm06a
-// rotates GCRS to the equator and equinox of date. TT = UTC + 69.184 s (leap seconds of 2017 onwards).
-Eigen::Vector3d erfa_sun(const JulianDate& jd) {
-  const double tt_fraction = jd.fraction + 69.184 / seconds_per_day;
-  double pvh[2][3], pvb[2][3];
-  eraEpv00(jd.day, tt_fraction, pvh, pvb);
-  double s[3] = {-pvh[0][0], -pvh[0][1], -pvh[0][2]};
-  double rnpb[3][3], out[3];
-  eraPnm06a(jd.day, tt_fraction, rnpb);
-  eraRxp(rnpb, s, out);
-  return Eigen::Vector3d(out[0], out[1], out[2]).normalized();
-}
+// Reference Sun direction from ERFA, true equator and equinox of date (tests/time/erfa_sun.hpp), as a unit vector.
+Eigen::Vector3d erfa_sun(const JulianDate& jd) { return test::erfa_sun_of_date(jd).normalized(); }
 
 double erfa_declination_deg(const JulianDate& jd) { return std::asin(erfa_sun(jd).z()) * deg_per_rad; }
 

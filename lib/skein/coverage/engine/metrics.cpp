@@ -78,6 +78,16 @@ GapFigures point_gap_figures(std::vector<float> gaps, double span_s) {
   return f;
 }
 
+// The plain (fold-1) gap fields of a point or an aggregate, from its fold-1 figures.
+template <class Target>
+void set_fold1_figures(Target& t, const GapFigures& f1) {
+  t.max_gap_s = f1.max_gap_s;
+  t.mean_gap_s = f1.mean_gap_s;
+  t.p95_gap_s = f1.p95_gap_s;
+  t.gap_count = f1.gap_count;
+  t.mean_response_time_s = f1.mean_response_time_s;
+}
+
 }  // namespace
 
 CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::vector<size_t>& members,
@@ -124,12 +134,7 @@ CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::ve
       f.p95_gap_s = weighted_quantile(pooled, 0.95);
     }
   }
-  const GapFigures& f1 = a.gaps_by_fold.front();
-  a.max_gap_s = f1.max_gap_s;
-  a.mean_gap_s = f1.mean_gap_s;
-  a.p95_gap_s = f1.p95_gap_s;
-  a.gap_count = f1.gap_count;
-  a.mean_response_time_s = f1.mean_response_time_s;
+  set_fold1_figures(a, a.gaps_by_fold.front());
   return a;
 }
 
@@ -163,12 +168,7 @@ void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointSta
       res.required_radius_deg[static_cast<size_t>(k)] = std::max(res.required_radius_deg[static_cast<size_t>(k)], rd);
     }
     for (int k = 1; k <= K; ++k) pc.gaps_by_fold.push_back(point_gap_figures(gaps_at(ps, k), smp.span));
-    const GapFigures& f1 = pc.gaps_by_fold.front();
-    pc.max_gap_s = f1.max_gap_s;
-    pc.mean_gap_s = f1.mean_gap_s;
-    pc.p95_gap_s = f1.p95_gap_s;
-    pc.gap_count = f1.gap_count;
-    pc.mean_response_time_s = f1.mean_response_time_s;
+    set_fold1_figures(pc, pc.gaps_by_fold.front());
     pc.mean_in_view = ps.count_time / smp.span;
     pc.max_in_view = ps.max_in_view;
     for (int n = 0; n < in_view_bins; ++n)
