@@ -33,8 +33,6 @@ struct Site {
   double height_km = 0.0;  // above the ellipsoid
 };
 
-// The largest fold K accepted, in the YAML block and by --fold (bounds per-point scratch arrays).
-
 struct CoverageSpec {
   bool present = false;                 // the design has a coverage block
   GridKind grid = GridKind::global;     // grid.kind, default global
