@@ -73,6 +73,15 @@ void add_report_command(CLI::App& app) {
     options.budget.solar = solar_of(opt->solar);
     options.creation_date = creation_date(opt->created);
     options.ephemeris_step_s = opt->ephemeris_step_s;
+    // The command as typed, with the output folder written FOLDER: it does not change a figure, and so two runs of
+    // the same command into different folders stay byte-identical.
+    std::vector<std::string> args = command_args();
+    for (size_t i = 0; i < args.size(); ++i) {
+      if (args[i] == "--out" && i + 1 < args.size()) args[++i] = "FOLDER";
+      else if (args[i].rfind("--out=", 0) == 0) args[i] = "--out=FOLDER";
+    }
+    options.record.command_line = shell_quoted(args);
+    options.record.design_text = read_design_file_bytes(opt->design);
     std::string out = opt->out.empty() ? "reports/" + std::filesystem::path(opt->design).stem().string() : opt->out;
     while (out.size() > 1 && out.back() == '/') out.pop_back();
     FolderWriteOptions folder;

@@ -38,6 +38,13 @@ void print_stderr(const std::string& text);
 // with it.
 void print_caution();
 
+// The command line's arguments (the program name as "skein"), for the report's run record; set once by main
+// before parsing.
+void set_command_args(int argc, char** argv);
+const std::vector<std::string>& command_args();
+// Arguments joined into one line, each quoted where a shell would need it, control bytes shown as \xNN.
+std::string shell_quoted(const std::vector<std::string>& args);
+
 // Library errors name the design field ("coverage.step_s = 0 s: ..."). Where a value came from a flag, the
 // command says which: run f, and when it throws an InputError whose message starts with one of the given
 // fields, throw it again prefixed with that field's flag ("--step: coverage.step_s = 0 s: ...").

@@ -5,6 +5,9 @@
 #include <exception>
 #include <iostream>
 #include <map>
+#include <string_view>
+
+#include <fmt/format.h>
 
 #include "commands.hpp"
 #include "skein/error.hpp"
@@ -58,6 +61,39 @@ void print_stderr(const std::string& text) {
 
 void print_caution() { print_stderr("Caution: " + std::string(caution_text) + "\n"); }
 
+namespace {
+std::vector<std::string> typed_args;
+}  // namespace
+
+void set_command_args(int argc, char** argv) {
+  typed_args.assign(1, "skein");
+  for (int i = 1; i < argc; ++i) typed_args.emplace_back(argv[i]);
+}
+
+const std::vector<std::string>& command_args() { return typed_args; }
+
+std::string shell_quoted(const std::vector<std::string>& args) {
+  std::string line;
+  for (const std::string& arg : args) {
+    std::string shown;
+    bool quote = arg.empty();
+    for (unsigned char ch : arg) {
+      if (ch < 0x20 || ch == 0x7f) {
+        shown += fmt::format("\\x{:02x}", ch);
+        quote = true;
+      } else if (ch == '\'') {
+        shown += "'\\''";
+        quote = true;
+      } else {
+        shown += static_cast<char>(ch);
+        if (std::string_view(" \t\"$`\\!*?;&|<>()[]{}#~").find(static_cast<char>(ch)) != std::string_view::npos) quote = true;
+      }
+    }
+    line += (line.empty() ? "" : " ") + (quote ? "'" + shown + "'" : shown);
+  }
+  return line;
+}
+
 }  // namespace skein::cli
 
 int main(int argc, char** argv) {
@@ -71,6 +107,7 @@ int main(int argc, char** argv) {
   skein::cli::add_budget_command(app);
   skein::cli::add_report_command(app);
   skein::cli::add_sweep_command(app);
+  skein::cli::set_command_args(argc, argv);
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {

@@ -181,5 +181,28 @@ compare_rows("coverage_overview", [coverage])
 budget = json.loads(run("budget", design, "--format", "json"))
 compare_rows("budget_shells", budget["shells"])
 print("report tables agree with drift, coverage and budget JSON")
+
+# 5. The run record: the copy of the design is the design file's bytes, its hash is 64-bit FNV-1a of them
+# (computed here from Fowler, Noll and Vo's published definition: offset basis 14695981039346656037, prime
+# 1099511628211), the version is `skein --version`'s, and the command leaves the output folder out.
+with open(design, "rb") as f:
+    design_bytes = f.read()
+with open(os.path.join(a, "design.yaml"), "rb") as f:
+    if f.read() != design_bytes:
+        fail("design.yaml is not a copy of the design file")
+h = 14695981039346656037
+for byte in design_bytes:
+    h = ((h ^ byte) * 1099511628211) % (1 << 64)
+with open(os.path.join(a, "tables", "run_record.json")) as f:
+    record = {r["setting"]: r["value"] for r in json.load(f)["rows"]}
+if not record.get("design file FNV-1a 64", "").startswith(f"{h:016x} ({len(design_bytes)} bytes"):
+    fail(f"run record hash {record.get('design file FNV-1a 64')!r}, expected {h:016x}")
+version = run("--version").split()[-1]
+if record.get("skein version") != version:
+    fail(f"run record version {record.get('skein version')!r}, skein --version says {version!r}")
+command = record.get("command (FOLDER: this folder)", "")
+if "--out FOLDER" not in command or work in command:
+    fail(f"run record command {command!r} does not leave the output folder out")
+print("run record: design copy, FNV-1a hash, version and command checked")
 print(f"report checks: {0 if failures else 1} passed, {1 if failures else 0} failed")
 sys.exit(1 if failures else 0)

@@ -13,7 +13,7 @@
 
 #include "skein/input/sweep_file.hpp"
 #include "skein/error.hpp"
-#include "skein/sweep/checksum.hpp"
+#include "skein/io/checksum.hpp"
 #include "skein/sweep/journal.hpp"
 #include "skein/sweep/layouts.hpp"
 #include "skein/sweep/results_rows.hpp"

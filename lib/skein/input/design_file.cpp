@@ -300,6 +300,8 @@ std::optional<double> parse_local_time_h(std::string_view t) {
 
 Design read_design_file(const std::string& path) { return read_design(yaml::load_file(path), path); }
 
+std::string read_design_file_bytes(const std::string& path) { return yaml::read_text_file(path); }
+
 Design read_design_text(const std::string& text, const std::string& name) {
   return read_design(yaml::load_text(text, name), name);
 }

@@ -13,7 +13,7 @@
 #include "skein/input/coverage_block.hpp"
 #include "skein/input/requirement_block.hpp"
 #include "skein/input/yaml_reader.hpp"
-#include "skein/sweep/checksum.hpp"
+#include "skein/io/checksum.hpp"
 #include "skein/sweep/layouts.hpp"
 #include "skein/version.hpp"
 

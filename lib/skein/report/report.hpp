@@ -11,6 +11,7 @@
 #include "skein/coverage/evaluate.hpp"
 #include "skein/design/design.hpp"
 #include "skein/io/folder_write.hpp"
+#include "skein/report/run_record.hpp"
 
 #include "skein/caution.hpp"
 
@@ -24,6 +25,7 @@ struct ReportOptions {
   std::string originator = "skein";      // OEM ORIGINATOR
   double ephemeris_span_s = 86400.0;     // OEM span from the epoch (1 day)
   double ephemeris_step_s = 60.0;        // OEM sample step
+  RunRecordInputs record;                // the command line and the design file's bytes, for the run record
 };
 
 struct Report {

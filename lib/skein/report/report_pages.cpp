@@ -57,7 +57,8 @@ std::string summary_markdown(const Design& d, const std::vector<NamedTable>& tab
                                {"coverage_bands", ""},
                                {"budget_shells", "Lifetime and delta-v budget"},
                                {"budget_lines", ""},
-                               {"lifetime_by_level", ""}};
+                               {"lifetime_by_level", ""},
+                               {"run_record", "How this report was made"}};
   for (const auto& s : sections)
     for (const auto& t : tables)
       if (t.file == s[0]) {

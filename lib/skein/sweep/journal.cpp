@@ -13,7 +13,7 @@
 #include <fmt/format.h>
 
 #include "skein/error.hpp"
-#include "skein/sweep/checksum.hpp"
+#include "skein/io/checksum.hpp"
 #include "skein/sweep/results_rows.hpp"
 
 namespace skein {

@@ -1,4 +1,4 @@
-#include "skein/sweep/checksum.hpp"
+#include "skein/io/checksum.hpp"
 
 #include <array>
 

@@ -1,5 +1,6 @@
 #pragma once
-// Checksums for the sweep journal (detecting a half-written or damaged line) and the sweep fingerprint.
+// Checksums: the sweep journal's lines (detecting a half-written or damaged line), the sweep fingerprint and
+// the report's record of its design file.
 #include <cstdint>
 #include <string>
 #include <string_view>
