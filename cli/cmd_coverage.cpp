@@ -92,13 +92,15 @@ void add_coverage_command(CLI::App& app) {
     if (f == OutputFormat::json) {
       print_stdout(coverage_json(result).dump(2) + "\n");
     } else if (f == OutputFormat::csv) {
-      print_stdout(render_csv(bands));
+      print_stdout(render_csv(result.grid == GridKind::sites ? coverage_site_table(result) : bands));
     } else {
       std::string requirement;
       if (result.requirement)
         requirement = render_text(coverage_requirement_table(result)) + coverage_requirement_line(result) + "\n\n";
       print_stdout(render_text(overview) + "\n" + coverage_between_instants_note(result) + "\n\n" + requirement +
-                   render_text(folds) + "\n" + render_text(bands) + "\n" + render_text(in_view_distribution_table(result)));
+                   render_text(folds) + "\n" +
+                   render_text(result.grid == GridKind::sites ? coverage_site_table(result) : bands) + "\n" +
+                   render_text(in_view_distribution_table(result)));
     }
     print_caution();
   });

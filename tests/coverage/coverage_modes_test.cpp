@@ -62,6 +62,8 @@ void check_same(const CoverageResult& a, const CoverageResult& b) {
     CHECK(p.mean_response_time_s == q.mean_response_time_s);
     CHECK(p.mean_in_view == q.mean_in_view);
     CHECK(p.max_in_view == q.max_in_view);
+    CHECK(p.passes == q.passes);
+    CHECK(p.mean_pass_s == q.mean_pass_s);
     CHECK(p.radius_deg_by_fold == q.radius_deg_by_fold);
     REQUIRE(p.gaps_by_fold.size() == q.gaps_by_fold.size());
     for (size_t k = 0; k < p.gaps_by_fold.size(); ++k) {

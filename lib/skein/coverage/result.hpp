@@ -40,6 +40,8 @@ struct PointCoverage {
   double mean_response_time_s = 0.0;        // time average of the wait until the next coverage
   double mean_in_view = 0.0;                // time average of the number of satellites in view
   int max_in_view = 0;
+  long passes = 0;                          // satellite passes over the point (in view at the start, or rising)
+  double mean_pass_s = 0.0;                 // in-view time summed over satellites / passes (cut at the span's ends)
   std::vector<double> radius_deg_by_fold;   // k = 1..K: largest central angle to the k-th nearest satellite
   std::vector<GapFigures> gaps_by_fold;     // k = 1..K; entry 0 holds the fold-1 figures above
 };

@@ -163,6 +163,30 @@ Table coverage_point_table(const CoverageResult& r) {
   return t;
 }
 
+Table coverage_site_table(const CoverageResult& r) {
+  Table t;
+  t.title = "Coverage by site";
+  t.columns = {{"name", "site", "", 0}, {"lat_deg", "lat", "deg", 4}, {"lon_deg", "lon", "deg", 4}};
+  for (int k = 0; k < r.max_fold; ++k)
+    t.columns.push_back({fmt::format("percent_covered_k{}", k + 1), fmt::format("covered k>={}", k + 1), "%", 3});
+  for (Column c : std::vector<Column>{{"max_gap_s", "max gap", "s", 1},
+                                      {"mean_gap_s", "mean gap", "s", 1},
+                                      {"mean_response_time_s", "mean response", "s", 1},
+                                      {"passes_per_day", "passes per day", "", 2},
+                                      {"mean_pass_min", "mean pass", "min", 2}})
+    t.columns.push_back(c);
+  const double days = r.span_s / 86400.0;
+  for (const PointCoverage& p : r.points) {
+    std::vector<Cell> row{p.point.name, p.point.lat_deg, p.point.lon_deg};
+    for (double v : p.percent_by_fold) row.emplace_back(v);
+    for (Cell c : std::vector<Cell>{p.max_gap_s, p.mean_gap_s, p.mean_response_time_s,
+                                    static_cast<double>(p.passes) / days, p.mean_pass_s / 60.0})
+      row.push_back(c);
+    t.add_row(std::move(row));
+  }
+  return t;
+}
+
 Table in_view_distribution_table(const CoverageResult& r) {
   Table t;
   t.title = "Satellites in view (share of time and area)";

@@ -24,6 +24,10 @@ Table coverage_band_table(const CoverageResult& r);
 // wrote before and may replace.
 inline constexpr std::string_view point_table_csv_signature = "name,lat_deg,lon_deg,height_km,area_weight,cell_lat_min_deg,";
 Table coverage_point_table(const CoverageResult& r);
+// One row per site (site grids): percent covered at each fold, max and mean gap, mean response, passes per day
+// and mean pass length (the in-view time summed over satellites, over the passes; passes cut by the span's
+// ends count, so the mean is a slight underestimate for short spans).
+Table coverage_site_table(const CoverageResult& r);
 // The time- and area-weighted distribution of the number of satellites in view.
 Table in_view_distribution_table(const CoverageResult& r);
 // Quantiles 0..100 % of the pooled, area-weighted revisit-gap distribution (a CDF).

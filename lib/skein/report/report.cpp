@@ -46,9 +46,9 @@ ReportSizeEstimate estimate_report_size(const Design& design, const ReportOption
   ReportSizeEstimate e;
   double planes = 0.0;
   for (const Shell& sh : design.shells) planes += sh.planes;
-  // summary, page, the design's copy; 16 tables and the decay tables in CSV and JSON; up to 9 plots and one per
+  // summary, page, the design's copy; 17 tables and the decay tables in CSV and JSON; up to 9 plots and one per
   // shell; GeoJSON; OEM.
-  e.files = 3.0 + 2.0 * (16.0 + shells * levels) + 9.0 + shells + 1.0 + sats;
+  e.files = 3.0 + 2.0 * (17.0 + shells * levels) + 9.0 + shells + 1.0 + sats;
   e.bytes = fixed_bytes + sats * (oem_header_bytes + samples * oem_line_bytes + satellite_table_bytes) +
             points * point_bytes + std::min(planes, static_cast<double>(max_beta_eclipse_series)) * beta_eclipse_drawn_plane_bytes +
             planes * beta_eclipse_plane_row_bytes;
@@ -104,6 +104,7 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
       {"lifetime_by_level", lifetime_by_level_table(rep.budget)},
   };
   if (rep.coverage.requirement) tables.push_back({"coverage_requirement", coverage_requirement_table(rep.coverage)});
+  if (rep.coverage.grid == GridKind::sites) tables.push_back({"coverage_sites", coverage_site_table(rep.coverage)});
   tables.push_back({"run_record", run_record_table(design, rep.coverage, rep.budget, options.record)});
   for (const auto& sh : rep.budget.shells)
     for (const auto& dec : sh.decay)

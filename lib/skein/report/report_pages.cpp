@@ -54,6 +54,7 @@ std::string summary_markdown(const Design& d, const std::vector<NamedTable>& tab
                                {"beta_eclipse", ""},
                                {"coverage_overview", "Coverage"},
                                {"coverage_folds", ""},
+                               {"coverage_sites", ""},
                                {"coverage_bands", ""},
                                {"budget_shells", "Lifetime and delta-v budget"},
                                {"budget_lines", ""},

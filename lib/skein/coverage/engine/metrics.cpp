@@ -171,6 +171,9 @@ void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointSta
     set_fold1_figures(pc, pc.gaps_by_fold.front());
     pc.mean_in_view = ps.count_time / smp.span;
     pc.max_in_view = ps.max_in_view;
+    pc.passes = ps.passes;
+    // The time integral of the count in view is the sum of the passes' durations (within the span).
+    pc.mean_pass_s = ps.passes > 0 ? ps.count_time / static_cast<double>(ps.passes) : 0.0;
     for (int n = 0; n < in_view_bins; ++n)
       res.in_view_fraction[static_cast<size_t>(n)] += pc.point.area_weight * hist[p * in_view_bins + static_cast<size_t>(n)] / smp.span;
   }

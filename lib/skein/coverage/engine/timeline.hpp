@@ -25,6 +25,7 @@ struct PointState {
   bool in_gap = false;
   int count = 0;
   int max_in_view = 0;
+  long passes = 0;       // passes begun: in view at the start, and every rise
   double count_time = 0.0;
 };
 
@@ -48,6 +49,7 @@ inline void integrate(PointState& ps, const PointSums& sums, double t) {
 inline void start_timeline(PointState& ps, const PointSums& sums, int count) {
   ps.count = count;
   ps.max_in_view = count;
+  ps.passes = count;
   ps.last_t = 0.0;
   if (count == 0) {
     ps.in_gap = true;
@@ -89,6 +91,7 @@ inline void apply_events(PointState& ps, const PointSums& sums, const Event* beg
     cur = te;
     const int before = ps.count;
     ps.count += e->delta;
+    ps.passes += e->delta > 0;
     ps.max_in_view = std::max(ps.max_in_view, ps.count);
     if (before == 0 && ps.count == 1 && ps.in_gap) {
       if (te - ps.gap_start > 0.0) ps.gaps.push_back(static_cast<float>(te - ps.gap_start));
