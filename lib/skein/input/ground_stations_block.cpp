@@ -22,7 +22,7 @@ std::vector<GroundStation> read_ground_stations(const yaml::MapReader& root) {
     g.lon_deg = s.number("lon_deg", -180.0, 360.0, "a longitude in degrees");
     g.height_km = s.optional_number("height_km", -0.5, 10.0, "a height above the ellipsoid in km").value_or(0.0);
     g.min_elevation_deg =
-        s.optional_number("min_elevation_deg", 0.0, 89.0, "an elevation mask in degrees (0 to 89)").value_or(10.0);
+        s.optional_number("min_elevation_deg", 0.0, 89.0, "an elevation mask in degrees").value_or(10.0);
     for (const GroundStation& other : stations)
       if (other.name == g.name)
         s.fail_key("name", fmt::format("station name {} is used twice; expected unique names",
