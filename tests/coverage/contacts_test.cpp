@@ -268,3 +268,19 @@ TEST_CASE("contacts: a design without ground stations is refused") {
   const Design d = read_design_text(test::coverage_design_head() + test::equatorial_satellite(800.0, 0.0), "none.yaml");
   CHECK_THROWS_AS(compute_contacts(d), InputError);
 }
+
+TEST_CASE("contacts: the ground_stations reader keeps the values and fills the stated defaults") {
+  const Design d = read_design_text(
+      test::coverage_design_head() + test::equatorial_satellite(800.0, 0.0) +
+          stations_block("  - {name: Alpha, lat_deg: -12.5, lon_deg: 350}\n"
+                         "  - {name: Beta, lat_deg: 40, lon_deg: -3, height_km: 0.65, min_elevation_deg: 7.5}\n"),
+      "read.yaml");
+  REQUIRE(d.ground_stations.size() == 2);
+  CHECK(d.ground_stations[0].name == "Alpha");
+  CHECK(d.ground_stations[0].lat_deg == -12.5);
+  CHECK(d.ground_stations[0].lon_deg == 350.0);
+  CHECK(d.ground_stations[0].height_km == 0.0);           // default
+  CHECK(d.ground_stations[0].min_elevation_deg == 10.0);  // default
+  CHECK(d.ground_stations[1].height_km == 0.65);
+  CHECK(d.ground_stations[1].min_elevation_deg == 7.5);
+}
