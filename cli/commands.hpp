@@ -78,5 +78,6 @@ void add_coverage_command(CLI::App& app);
 void add_budget_command(CLI::App& app);
 void add_report_command(CLI::App& app);
 void add_sweep_command(CLI::App& app);
+void add_contacts_command(CLI::App& app);
 
 }  // namespace skein::cli

@@ -104,6 +104,7 @@ int main(int argc, char** argv) {
   skein::cli::add_check_command(app);
   skein::cli::add_drift_command(app);
   skein::cli::add_coverage_command(app);
+  skein::cli::add_contacts_command(app);
   skein::cli::add_budget_command(app);
   skein::cli::add_report_command(app);
   skein::cli::add_sweep_command(app);

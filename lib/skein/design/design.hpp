@@ -8,6 +8,7 @@
 #include "skein/design/budget_spec.hpp"
 #include "skein/constants.hpp"
 #include "skein/design/coverage_spec.hpp"
+#include "skein/design/ground_station.hpp"
 #include "skein/time/epoch.hpp"
 
 namespace skein {
@@ -66,6 +67,7 @@ struct Design {
   std::vector<Shell> shells;
   CoverageSpec coverage;  // the `coverage` block (defaults when absent)
   BudgetSpec budget;      // the `budget` block (defaults when absent)
+  std::vector<GroundStation> ground_stations;  // the `ground_stations` list (none when absent)
 };
 
 }  // namespace skein

@@ -8,6 +8,7 @@
 
 #include "skein/input/budget_block.hpp"
 #include "skein/input/coverage_block.hpp"
+#include "skein/input/ground_stations_block.hpp"
 #include "skein/input/yaml_reader.hpp"
 #include "skein/orbit/sun_synchronous.hpp"
 #include "skein/time/sun.hpp"
@@ -227,7 +228,8 @@ Design read_design(const YAML::Node& root_node, const std::string& file) {
     yaml::fail_at(file, yaml::key_node(root_node, root_node["base"] ? "base" : "axes"), "",
                   "this is a sweep file (it has base and axes, no shells), not a design; run skein sweep on it, or "
                   "give this command a design file");
-  const MapReader root(file, root_node, "", {"name", "epoch", "earth", "spacecraft", "shells", "coverage", "budget"});
+  const MapReader root(file, root_node, "", {"name", "epoch", "earth", "spacecraft", "shells", "coverage", "budget",
+                                                  "ground_stations"});
   Design d;
   d.file = file;
   d.name = root.name("name", "a design name");
@@ -284,6 +286,7 @@ Design read_design(const YAML::Node& root_node, const std::string& file) {
                               d.coverage.requirement->fold, total, total));
   }
   d.budget = read_budget_spec(root);
+  d.ground_stations = read_ground_stations(root);
   return d;
 }
 

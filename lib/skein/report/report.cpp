@@ -13,6 +13,7 @@
 #include "skein/drift/beta_eclipse.hpp"
 #include "skein/drift/drift_summary.hpp"
 #include "skein/report/budget_tables.hpp"
+#include "skein/report/contact_tables.hpp"
 #include "skein/report/coverage_tables.hpp"
 #include "skein/report/layout_tables.hpp"
 #include "skein/report/report_pages.hpp"
@@ -34,6 +35,7 @@ constexpr double beta_eclipse_plane_row_bytes = 600.0;
 constexpr double oem_header_bytes = 1000.0;
 constexpr double satellite_table_bytes = 500.0;
 constexpr double point_bytes = 1800.0;
+constexpr double contact_pair_row_bytes = 400.0;  // a satellite-station row of the contact table, CSV and JSON
 constexpr double fixed_bytes = 300000.0;  // summary, page, small tables and plots
 
 ReportSizeEstimate estimate_report_size(const Design& design, const ReportOptions& options) {
@@ -47,11 +49,12 @@ ReportSizeEstimate estimate_report_size(const Design& design, const ReportOption
   double planes = 0.0;
   for (const Shell& sh : design.shells) planes += sh.planes;
   // summary, page, the design's copy; 17 tables and the decay tables in CSV and JSON; up to 9 plots and one per
-  // shell; GeoJSON; OEM.
-  e.files = 3.0 + 2.0 * (17.0 + shells * levels) + 9.0 + shells + 1.0 + sats;
+  // shell; GeoJSON; OEM. With ground stations, 4 contact tables in CSV and JSON.
+  const double stations = static_cast<double>(design.ground_stations.size());
+  e.files = 3.0 + 2.0 * (17.0 + shells * levels) + 9.0 + shells + 1.0 + sats + (stations > 0.0 ? 8.0 : 0.0);
   e.bytes = fixed_bytes + sats * (oem_header_bytes + samples * oem_line_bytes + satellite_table_bytes) +
             points * point_bytes + std::min(planes, static_cast<double>(max_beta_eclipse_series)) * beta_eclipse_drawn_plane_bytes +
-            planes * beta_eclipse_plane_row_bytes;
+            planes * beta_eclipse_plane_row_bytes + sats * stations * contact_pair_row_bytes;
   return e;
 }
 
@@ -74,6 +77,7 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
           "expected a smaller design, a coarser coverage grid or a longer --ephemeris-step, or --force",
           size.files, size.bytes / (1024.0 * 1024 * 1024), max_report_files, max_report_bytes / (1024.0 * 1024 * 1024)));
   }
+  if (!design.ground_stations.empty()) check_contact_work(design, contact_options_for(design));
   Report rep;
   auto sink = [&](const std::string& path, std::string_view content) {
     sink_file(path, content);
@@ -105,6 +109,13 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
   };
   if (rep.coverage.requirement) tables.push_back({"coverage_requirement", coverage_requirement_table(rep.coverage)});
   if (rep.coverage.grid == GridKind::sites) tables.push_back({"coverage_sites", coverage_site_table(rep.coverage)});
+  if (!design.ground_stations.empty()) {
+    const ContactResult contacts = compute_contacts(design);
+    tables.push_back({"station_load", station_load_table(contacts)});
+    tables.push_back({"station_in_view", station_in_view_table(contacts)});
+    tables.push_back({"contact_gaps", contact_gap_table(contacts)});
+    tables.push_back({"contacts", contact_pair_table(contacts)});
+  }
   tables.push_back({"run_record", run_record_table(design, rep.coverage, rep.budget, options.record)});
   for (const auto& sh : rep.budget.shells)
     for (const auto& dec : sh.decay)

@@ -25,7 +25,7 @@ std::string html_page(const Design& d, const std::vector<NamedTable>& tables, co
   h += "<h2>Tables</h2>\n";
   for (const auto& t : tables) {
     const bool long_table = t.file == "satellites" || t.file == "coverage_points" || t.file == "gap_distribution" ||
-                            t.file.starts_with("decay_");
+                            t.file == "contacts" || t.file == "contact_gaps" || t.file.starts_with("decay_");
     if (long_table) continue;  // in tables/ as CSV and JSON only
     h += render_html(t.table);
   }
@@ -56,6 +56,7 @@ std::string summary_markdown(const Design& d, const std::vector<NamedTable>& tab
                                {"coverage_folds", ""},
                                {"coverage_sites", ""},
                                {"coverage_bands", ""},
+                               {"station_load", "Ground contacts"},
                                {"budget_shells", "Lifetime and delta-v budget"},
                                {"budget_lines", ""},
                                {"lifetime_by_level", ""},
