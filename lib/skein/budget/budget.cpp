@@ -11,6 +11,7 @@
 #include "skein/budget/impulses.hpp"
 #include "skein/budget/plausibility.hpp"
 #include "skein/budget/solar_inclination_drift.hpp"
+#include "skein/budget/transfer.hpp"
 #include "skein/design/constellation.hpp"
 #include "skein/error.hpp"
 #include "skein/orbit/secular.hpp"
@@ -216,6 +217,30 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
   const double v = circular_speed_m_s(earth.mu_km3_s2, shell.a_km);
   const double k = spec.sigma_multiple;
 
+  // (0) raising from the injection orbit (budget.injection) to the circle of the shell's semi-major axis. Its
+  // basis is completed below, once the propellant (and for electric, the thrusting time) is known.
+  if (spec.injection) {
+    const InjectionSpec& inj = *spec.injection;
+    RaisingFigures rf;
+    rf.propulsion = inj.propulsion;
+    rf.plane_change_deg = std::abs(inj.inclination_deg.value_or(shell.inclination_deg) - shell.inclination_deg);
+    const double rp = earth.radius_km + inj.perigee_km, ra = earth.radius_km + inj.apogee_km;
+    const double di = rf.plane_change_deg * rad_per_deg;
+    if (inj.propulsion == RaisingPropulsion::chemical) {
+      rf.dv_m_s = two_impulse_transfer(earth.mu_km3_s2, rp, ra, shell.a_km, di).dv_m_s;
+    } else {
+      if (rf.plane_change_deg > 90.0)
+        throw InputError(fmt::format("budget.injection: the plane change to the shell is {:.6g} deg; Edelbaum's "
+                                     "transfer (propulsion: electric) is used here up to 90 deg; expected an injection "
+                                     "inclination within 90 deg of the shell's {} deg",
+                                     rf.plane_change_deg, shell.inclination_deg));
+      rf.dv_m_s = edelbaum_dv_m_s(earth.mu_km3_s2, rp, shell.a_km, di);
+    }
+    rf.isp_s = inj.isp_s.value_or(sc.isp_s.value_or(0.0));
+    out.raising = rf;
+    out.dv_lines.push_back({"raising", rf.dv_m_s, ""});
+  }
+
   // (a) drag make-up
   const Makeup mk = drag_makeup(earth, atm, b, shell.a_km, shell.e, life_days, spec.deadband_km, reentry_km);
   if (mk.reentered)
@@ -334,8 +359,48 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
   out.total_dv_m_s = sum + margin;
   out.fleet_dv_m_s = out.total_dv_m_s * shell.satellites;
 
+  // Propellant: the raise is flown first, so the station-keeping propellant (its lines and their margin, at
+  // spacecraft.isp_s) is carried through it; the raise (and its margin share) burns at the raising engine's isp.
+  // With one isp for both this is exactly m_dry (exp(total dv / c) - 1).
+  const double raise_total_m_s = out.raising ? out.raising->dv_m_s * (1.0 + spec.margin_percent / 100.0) : 0.0;
+  const double keep_total_m_s = out.total_dv_m_s - raise_total_m_s;
+  if (out.raising) {
+    RaisingFigures& rf = *out.raising;
+    const InjectionSpec& inj = *spec.injection;
+    if (rf.isp_s > 0.0) {
+      const double carried = sc.isp_s ? propellant_mass_kg(sc.dry_mass_kg, keep_total_m_s, *sc.isp_s) : 0.0;
+      rf.propellant_kg = propellant_mass_kg(sc.dry_mass_kg + carried, raise_total_m_s, rf.isp_s);
+      if (inj.thrust_n) {
+        const double m0 = sc.dry_mass_kg + carried + *rf.propellant_kg;
+        rf.transfer_days = constant_thrust_burn_time_s(m0, rf.dv_m_s, *inj.thrust_n, rf.isp_s) / seconds_per_day;
+      }
+    }
+    const std::string from = inj.perigee_km == inj.apogee_km
+                                 ? fmt::format("circular {} km", inj.perigee_km)
+                                 : fmt::format("{} x {} km", inj.perigee_km, inj.apogee_km);
+    const std::string plane = rf.plane_change_deg > 0.0 ? fmt::format(", plane change {:.3f} deg", rf.plane_change_deg) : "";
+    std::string& basis = out.dv_lines.front().basis;
+    if (rf.propulsion == RaisingPropulsion::chemical) {
+      basis = fmt::format("chemical from {}{}: two burns, the first at an apsis of the injection orbit, the second "
+                          "circularising at the shell, plane change combined with the burn at the larger radius by "
+                          "dv = sqrt(v1^2 + v2^2 - 2 v1 v2 cos di) (Hohmann; Vallado 2013 sec. 6.3-6.4)",
+                          from, plane);
+    } else {
+      basis = fmt::format("electric from {}{}: dv = sqrt(v0^2 - 2 v0 v1 cos(pi/2 di) + v1^2) (Edelbaum 1961); {} N "
+                          "at isp {} s for {} (t = (m0 c / F)(1 - exp(-dv / c)), c = g0 isp)",
+                          from, plane, *inj.thrust_n, rf.isp_s,
+                          rf.transfer_days ? fmt::format("{:.1f} days", *rf.transfer_days) : std::string("?"));
+      if (!sc.isp_s)
+        basis += "; m0 without station-keeping propellant (no spacecraft.isp_s), so the time is a lower bound";
+      if (rf.transfer_days && *rf.transfer_days > life_days)
+        out.warnings.push_back(fmt::format("the electric raise takes {:.0f} days, longer than the {} yr mission life",
+                                           *rf.transfer_days, spec.mission_life_years));
+    }
+  }
   if (sc.isp_s) {
-    out.propellant_kg = propellant_mass_kg(sc.dry_mass_kg, out.total_dv_m_s, *sc.isp_s);
+    out.propellant_kg = out.raising ? propellant_mass_kg(sc.dry_mass_kg, keep_total_m_s, *sc.isp_s) +
+                                          out.raising->propellant_kg.value_or(0.0)
+                                    : propellant_mass_kg(sc.dry_mass_kg, out.total_dv_m_s, *sc.isp_s);
     out.fleet_propellant_kg = *out.propellant_kg * shell.satellites;
     if (sc.propellant_capacity_kg && *out.propellant_kg > *sc.propellant_capacity_kg) {
       out.exceeds_tank = true;

@@ -26,8 +26,8 @@ struct BudgetOptions {
 
 // One budget line, per satellite, over the mission life.
 struct DvLine {
-  std::string name;    // drag_makeup, node_drift_control, sso_inclination, slot_keeping,
-                       // collision_avoidance, disposal, margin
+  std::string name;    // raising (with budget.injection), drag_makeup, node_drift_control, sso_inclination,
+                       // slot_keeping, collision_avoidance, disposal, margin
   double dv_m_s = 0.0;
   std::string basis;   // how it was computed, for tables and the report
 };
@@ -38,6 +38,16 @@ struct LevelDecay {
   double lifetime_days = 0.0;
   bool lower_bound = false;  // still in orbit at the horizon: lifetime_days is the horizon
   std::vector<DecayPoint> curve;  // thinned, from epoch to re-entry (or the horizon)
+};
+
+// The raise from the design's injection orbit (budget.injection) to the shell, per satellite.
+struct RaisingFigures {
+  RaisingPropulsion propulsion = RaisingPropulsion::chemical;
+  double dv_m_s = 0.0;                  // the raising line (no margin)
+  double plane_change_deg = 0.0;        // |injection inclination - shell inclination|
+  double isp_s = 0.0;                   // of the raising engine; 0 when none is known (chemical without isp_s)
+  std::optional<double> propellant_kg;  // burnt by the raise (its margin share included); none without an isp
+  std::optional<double> transfer_days;  // electric: thrusting time (t = (m0 c / F)(1 - exp(-dv/c)))
 };
 
 struct ShellBudget {
@@ -70,6 +80,7 @@ struct ShellBudget {
   std::optional<double> fleet_propellant_kg;
   std::string propellant_missing;       // why propellant_kg is absent ("no isp_s"); empty when computed
   bool exceeds_tank = false;            // propellant_kg above spacecraft.propellant_capacity_kg
+  std::optional<RaisingFigures> raising;  // when the design has budget.injection
   // (f) disposal
   double disposal_perigee_km = 0.0;     // perigee altitude after the disposal burn
   std::optional<double> disposal_lifetime_days;  // natural lifetime after disposal (natural-decay mode)

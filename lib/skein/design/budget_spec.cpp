@@ -2,6 +2,10 @@
 
 namespace skein {
 
+std::string_view to_string(RaisingPropulsion propulsion) {
+  return propulsion == RaisingPropulsion::electric ? "electric" : "chemical";
+}
+
 std::string_view to_string(DisposalMode mode) {
   switch (mode) {
     case DisposalMode::natural_decay: return "natural-decay";

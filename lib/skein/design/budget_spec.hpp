@@ -26,6 +26,24 @@ enum class NodeControl {
 std::string_view to_string(NodeControl control);
 std::optional<NodeControl> node_control_from_string(std::string_view text);
 
+// How the spacecraft get from the injection orbit to their shell (budget.injection.propulsion).
+enum class RaisingPropulsion {
+  chemical,  // two impulses (Hohmann from a circular injection orbit), plane change combined with one of them
+  electric   // Edelbaum's low-thrust circle-to-circle transfer with plane change, at constant thrust
+};
+std::string_view to_string(RaisingPropulsion propulsion);
+
+// The orbit the launcher leaves every satellite in (one for the whole design, as on a shared launch), and the
+// propulsion that takes each satellite from there to its shell.
+struct InjectionSpec {
+  double perigee_km = 0.0;                 // altitude_km, or perigee_altitude_km
+  double apogee_km = 0.0;                  // altitude_km, or apogee_altitude_km
+  std::optional<double> inclination_deg;   // inclination_deg; default: each shell's own (no plane change)
+  RaisingPropulsion propulsion = RaisingPropulsion::chemical;  // propulsion
+  std::optional<double> thrust_n;          // thrust_n (electric only, required there)
+  std::optional<double> isp_s;             // isp_s of the raising engine; default spacecraft.isp_s
+};
+
 struct BudgetSpec {
   bool present = false;                          // the design has a budget block
   double mission_life_years = 5.0;               // mission_life_years
@@ -54,6 +72,7 @@ struct BudgetSpec {
   double disposal_perigee_km = 50.0;             // disposal.perigee_km (direct)
   double disposal_rule_years = 5.0;              // disposal.rule_years (natural-decay)
   double margin_percent = 10.0;                  // margin_percent
+  std::optional<InjectionSpec> injection;        // injection: none means no raising line
 };
 
 

@@ -1,11 +1,71 @@
 #include "skein/input/budget_block.hpp"
 
+#include <algorithm>
+
 #include <fmt/format.h>
 
+#include "skein/constants.hpp"
 #include "skein/input/yaml_reader.hpp"
 #include "skein/time/epoch.hpp"
 
 namespace skein {
+
+namespace {
+
+// budget.injection: the orbit the launcher leaves the satellites in and the propulsion that raises them.
+InjectionSpec read_injection(const yaml::MapReader& budget, double reentry_altitude_km) {
+  const yaml::MapReader m = budget.map("injection", {"altitude_km", "perigee_altitude_km", "apogee_altitude_km",
+                                                     "inclination_deg", "propulsion", "thrust_n", "isp_s"});
+  InjectionSpec inj;
+  // Wide bounds here; the floor below names the re-entry altitude it enforces.
+  constexpr double top_km = max_semi_major_axis_km;
+  const double floor_km = std::max(minimum_perigee_altitude_km, reentry_altitude_km);
+  auto above_floor = [&](std::string_view key, double km) {
+    if (km < floor_km)
+      m.fail_key(key, fmt::format("injection altitude {} km is below the re-entry altitude; expected a perigee of at "
+                                  "least {} km (the larger of budget.reentry_altitude_km {} km and the {} km floor)",
+                                  km, floor_km, reentry_altitude_km, minimum_perigee_altitude_km));
+  };
+  if (m.has("altitude_km")) {
+    if (m.has("perigee_altitude_km") || m.has("apogee_altitude_km"))
+      m.fail_key("altitude_km", "give altitude_km (a circular orbit) or perigee_altitude_km and apogee_altitude_km, not both");
+    inj.perigee_km = inj.apogee_km = m.number("altitude_km", -top_km, top_km, "an injection altitude in km");
+    above_floor("altitude_km", inj.perigee_km);
+  } else if (m.has("perigee_altitude_km") || m.has("apogee_altitude_km")) {
+    inj.perigee_km = m.number("perigee_altitude_km", -top_km, top_km, "an injection perigee altitude in km");
+    inj.apogee_km = m.number("apogee_altitude_km", -top_km, top_km, "an injection apogee altitude in km");
+    above_floor("perigee_altitude_km", inj.perigee_km);
+    if (inj.apogee_km < inj.perigee_km)
+      m.fail_key("apogee_altitude_km", fmt::format("apogee altitude {} km is below the perigee altitude {} km; expected "
+                                                   "an apogee at or above the perigee",
+                                                   inj.apogee_km, inj.perigee_km));
+  } else {
+    m.fail(m.self(), m.path(), "missing the injection orbit; expected altitude_km (circular) or perigee_altitude_km and "
+                               "apogee_altitude_km");
+  }
+  inj.inclination_deg = m.optional_number("inclination_deg", 0.0, 180.0, "an injection inclination in degrees (0 to 180)");
+  if (m.has("propulsion"))
+    inj.propulsion = m.choice("propulsion", {"chemical", "electric"}) == "electric" ? RaisingPropulsion::electric
+                                                                                      : RaisingPropulsion::chemical;
+  if (m.has("thrust_n")) {
+    if (inj.propulsion != RaisingPropulsion::electric)
+      m.fail_key("thrust_n", "applies only to propulsion: electric (a chemical raise is budgeted as impulses)");
+    const double f = m.number("thrust_n", -1e9, 1e9, "a thrust in newtons");
+    if (!(f > 0.0) || f > 1000.0)
+      m.fail_key("thrust_n", fmt::format("thrust {} N is {}; expected a thrust above 0 and at most 1000 N", f,
+                                         f > 0.0 ? "too large for an electric thruster" : "not positive"));
+    inj.thrust_n = f;
+  } else if (inj.propulsion == RaisingPropulsion::electric) {
+    m.fail(m.self(), m.path(), "propulsion: electric needs thrust_n, the thrust in newtons (above 0, at most 1000)");
+  }
+  inj.isp_s = m.optional_number("isp_s", 1.0, 1e5, "a specific impulse of the raising engine in s");
+  if (inj.propulsion == RaisingPropulsion::electric && inj.apogee_km != inj.perigee_km)
+    m.fail_key("apogee_altitude_km", "propulsion: electric is Edelbaum's transfer between circular orbits; expected a "
+                                     "circular injection orbit (altitude_km)");
+  return inj;
+}
+
+}  // namespace
 
 BudgetSpec read_budget_spec(const yaml::MapReader& root) {
   BudgetSpec spec;
@@ -13,7 +73,7 @@ BudgetSpec read_budget_spec(const yaml::MapReader& root) {
   const yaml::MapReader m = root.map(
       "budget", {"mission_life_years", "atmosphere", "harris_priester_exponent", "solar_activity", "solar_cycle_phase",
                  "solar_minimum_date", "reentry_altitude_km", "deadband_km", "injection_sigma", "node_control",
-                 "sso_inclination_control", "slot_keeping", "collision_avoidance", "disposal", "margin_percent"});
+                 "sso_inclination_control", "slot_keeping", "collision_avoidance", "disposal", "margin_percent", "injection"});
   spec.present = true;
   spec.mission_life_years =
       m.optional_number("mission_life_years", 0.01, 100.0, "a mission life in years (0.01 to 100)").value_or(5.0);
@@ -76,6 +136,7 @@ BudgetSpec read_budget_spec(const yaml::MapReader& root) {
       s.fail_key("rule_years", "applies only to mode: natural-decay");
   }
   spec.margin_percent = m.optional_number("margin_percent", 0.0, 200.0, "a margin in percent").value_or(10.0);
+  if (m.has("injection")) spec.injection = read_injection(m, spec.reentry_altitude_km);
   return spec;
 }
 

@@ -286,6 +286,24 @@ Design read_design(const YAML::Node& root_node, const std::string& file) {
                               d.coverage.requirement->fold, total, total));
   }
   d.budget = read_budget_spec(root);
+  // An electric raise needs a specific impulse for its propellant and time, from either block.
+  if (d.budget.injection && d.budget.injection->propulsion == RaisingPropulsion::electric && !d.budget.injection->isp_s &&
+      !d.spacecraft.isp_s)
+    yaml::fail_at(file, root.node("budget")["injection"]["propulsion"], "budget.injection.propulsion",
+                  "propulsion: electric needs a specific impulse; expected budget.injection.isp_s or spacecraft.isp_s");
+  // Edelbaum's transfer is used up to 90 deg of plane change (transfer.hpp); compute_budget guards it again for
+  // shells made elsewhere (sweep layouts).
+  if (d.budget.injection && d.budget.injection->propulsion == RaisingPropulsion::electric &&
+      d.budget.injection->inclination_deg)
+    for (const auto& shell : d.shells)
+      if (std::abs(*d.budget.injection->inclination_deg - shell.inclination_deg) > 90.0)
+        yaml::fail_at(file, root.node("budget")["injection"]["inclination_deg"], "budget.injection.inclination_deg",
+                      fmt::format("injection inclination {} deg is {:.6g} deg from shell {} ({} deg); propulsion: "
+                                  "electric (Edelbaum's transfer) is used here up to 90 deg of plane change; expected "
+                                  "an inclination within 90 deg of every shell's",
+                                  *d.budget.injection->inclination_deg,
+                                  std::abs(*d.budget.injection->inclination_deg - shell.inclination_deg), shell.name,
+                                  shell.inclination_deg));
   d.ground_stations = read_ground_stations(root);
   return d;
 }

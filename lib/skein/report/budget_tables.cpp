@@ -115,6 +115,15 @@ nlohmann::ordered_json budget_to_json(const BudgetResult& r, double re) {
     J lines = J::array();
     for (const auto& l : s.dv_lines) lines.push_back(J{{"name", l.name}, {"dv_m_s", l.dv_m_s}, {"basis", l.basis}});
     o["dv_lines"] = lines;
+    if (s.raising) {  // only with budget.injection, so designs without it keep their JSON unchanged
+      const RaisingFigures& f = *s.raising;
+      o["raising"] = J{{"propulsion", std::string(to_string(f.propulsion))},
+                       {"dv_m_s", f.dv_m_s},
+                       {"plane_change_deg", f.plane_change_deg},
+                       {"isp_s", f.isp_s > 0.0 ? J(f.isp_s) : J()},
+                       {"propellant_kg", opt_json(f.propellant_kg)},
+                       {"transfer_days", opt_json(f.transfer_days)}};
+    }
     o["total_dv_m_s"] = s.total_dv_m_s;
     o["fleet_dv_m_s"] = s.fleet_dv_m_s;
     o["propellant_kg"] = opt_json(s.propellant_kg);
