@@ -12,6 +12,12 @@ std::string point_label(const GridPoint& p) {
   return !p.name.empty() ? p.name : fmt::format("lat {:.2f} lon {:.2f}", p.lat_deg, p.lon_deg);
 }
 
+// The columns "covered k>=1" .. "covered k>=K" (percent of time with at least k in view).
+void add_fold_percent_columns(Table& t, int max_fold) {
+  for (int k = 0; k < max_fold; ++k)
+    t.columns.push_back({fmt::format("percent_covered_k{}", k + 1), fmt::format("covered k>={}", k + 1), "%", 3});
+}
+
 }  // namespace
 
 Table coverage_overview_table(const CoverageResult& r) {
@@ -92,8 +98,7 @@ Table coverage_band_table(const CoverageResult& r) {
   t.title = "Coverage by latitude band";
   t.columns = {{"lat_min_deg", "lat from", "deg", 1}, {"lat_max_deg", "lat to", "deg", 1}, {"points", "points", "", 0},
                {"area_percent", "area", "%", 3}};
-  for (int k = 0; k < r.max_fold; ++k)
-    t.columns.push_back({fmt::format("percent_covered_k{}", k + 1), fmt::format("covered k>={}", k + 1), "%", 3});
+  add_fold_percent_columns(t, r.max_fold);
   for (Column c : std::vector<Column>{{"max_gap_s", "max gap", "s", 1},
                                       {"mean_gap_s", "mean gap", "s", 1},
                                       {"p95_gap_s", "p95 gap", "s", 1},
@@ -121,8 +126,7 @@ Table coverage_point_table(const CoverageResult& r) {
                {"area_weight", "weight", "", 8}, {"cell_lat_min_deg", "cell lat min", "deg", 4},
                {"cell_lat_max_deg", "cell lat max", "deg", 4}, {"cell_lon_min_deg", "cell lon min", "deg", 4},
                {"cell_lon_max_deg", "cell lon max", "deg", 4}};
-  for (int k = 0; k < r.max_fold; ++k)
-    t.columns.push_back({fmt::format("percent_covered_k{}", k + 1), fmt::format("covered k>={}", k + 1), "%", 3});
+  add_fold_percent_columns(t, r.max_fold);
   for (Column c : std::vector<Column>{{"max_gap_s", "max gap", "s", 1},
                                       {"mean_gap_s", "mean gap", "s", 1},
                                       {"p95_gap_s", "p95 gap", "s", 1},
@@ -167,15 +171,14 @@ Table coverage_site_table(const CoverageResult& r) {
   Table t;
   t.title = "Coverage by site";
   t.columns = {{"name", "site", "", 0}, {"lat_deg", "lat", "deg", 4}, {"lon_deg", "lon", "deg", 4}};
-  for (int k = 0; k < r.max_fold; ++k)
-    t.columns.push_back({fmt::format("percent_covered_k{}", k + 1), fmt::format("covered k>={}", k + 1), "%", 3});
+  add_fold_percent_columns(t, r.max_fold);
   for (Column c : std::vector<Column>{{"max_gap_s", "max gap", "s", 1},
                                       {"mean_gap_s", "mean gap", "s", 1},
                                       {"mean_response_time_s", "mean response", "s", 1},
                                       {"passes_per_day", "passes per day", "", 2},
                                       {"mean_pass_min", "mean pass", "min", 2}})
     t.columns.push_back(c);
-  const double days = r.span_s / 86400.0;
+  const double days = r.span_s / seconds_per_day;
   for (const PointCoverage& p : r.points) {
     std::vector<Cell> row{p.point.name, p.point.lat_deg, p.point.lon_deg};
     for (double v : p.percent_by_fold) row.emplace_back(v);
