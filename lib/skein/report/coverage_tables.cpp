@@ -47,6 +47,7 @@ Table coverage_fold_table(const CoverageResult& r) {
                {"worst_instant_covered_percent", "worst instant area", "%", 3},
                {"worst_point_percent", "worst point", "%", 3},
                {"worst_point", "worst point at", "", 0},
+               {"worst_point_max_gap_s", "its max gap", "s", 1},
                {"max_gap_s", "max gap", "s", 1},
                {"mean_gap_s", "mean gap", "s", 1},
                {"p95_gap_s", "p95 gap", "s", 1},
@@ -58,7 +59,7 @@ Table coverage_fold_table(const CoverageResult& r) {
     const WorstPoint& w = r.worst_point_by_fold[i];
     const GapFigures& g = r.total.gaps_by_fold[i];
     t.add_row({static_cast<long>(k + 1), r.total.percent_by_fold[i], r.worst_instant_covered_percent[i],
-               w.percent_covered, point_label(r.points[w.point].point), g.max_gap_s, g.mean_gap_s, g.p95_gap_s,
+               w.percent_covered, point_label(r.points[w.point].point), w.max_gap_s, g.max_gap_s, g.mean_gap_s, g.p95_gap_s,
                g.gap_count, g.mean_response_time_s, r.required_radius_deg[i]});
   }
   return t;
