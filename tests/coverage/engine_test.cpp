@@ -150,7 +150,7 @@ TEST_CASE("weighted quantile: the quickselect equals the walk over the sorted sa
     const bool equal_weights = trial % 2 == 0;
     std::vector<std::pair<float, double>> s;
     for (size_t i = 0; i < n; ++i)
-      s.emplace_back(static_cast<float>(60 * (rng() % 40)), equal_weights ? 0.25 : 1e-4 + (rng() % 1000) * 1e-5);
+      s.emplace_back(static_cast<float>(60 * (rng() % 40)), equal_weights ? 0.25 : 1e-4 + static_cast<double>(rng() % 1000) * 1e-5);
     for (double q : {0.0, 0.05, 0.5, 0.95, 1.0}) {
       std::vector<std::pair<float, double>> sorted = s;
       std::stable_sort(sorted.begin(), sorted.end(), [](const auto& x, const auto& y) { return x.first < y.first; });
