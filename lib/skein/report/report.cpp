@@ -145,8 +145,9 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
   std::vector<std::string> warnings = rep.budget.warnings;
 
   if (!options.record.design_text.empty()) sink("design.yaml", options.record.design_text);
-  sink("summary.md", summary_markdown(design, tables, warnings, coverage_requirement_line(rep.coverage)));
-  sink("index.html", html_page(design, tables, figures, warnings, coverage_requirement_line(rep.coverage)));
+  const std::string verdict = coverage_requirement_line(rep.coverage);
+  sink("summary.md", summary_markdown(design, tables, warnings, verdict));
+  sink("index.html", html_page(design, tables, figures, warnings, verdict));
   for (const auto& t : tables) {
     sink("tables/" + t.file + ".csv", render_csv(t.table));
     nlohmann::ordered_json j;

@@ -33,15 +33,15 @@ LayoutMetrics evaluate_layout(const Sweep& sweep, const Layout& layout, const La
     const BudgetResult bud = compute_budget(design, bopt);
     const int fold = sweep.requirement.fold;
     const size_t k = static_cast<size_t>(fold - 1);
-    m.percent_covered = cov.total.percent_by_fold.at(k);
+    // The requirement figures as the judge reads them (grid_figure), so a row and its verdict cannot disagree.
+    m.percent_covered = grid_figure(cov, RequirementFigure::percent_covered, fold);
     m.cap_bound_satellites = cap_bound_satellites(design, sweep.shell_index, fold);
-    m.worst_instant_percent = cov.worst_instant_covered_percent.at(k);
-    m.worst_point_percent = cov.worst_point_by_fold.at(k).percent_covered;
-    const GapFigures& g = cov.total.gaps_by_fold.at(k);
-    m.max_gap_s = g.max_gap_s;
-    m.mean_gap_s = g.mean_gap_s;
-    m.p95_gap_s = g.p95_gap_s;
-    m.mean_response_time_s = g.mean_response_time_s;
+    m.worst_instant_percent = grid_figure(cov, RequirementFigure::worst_instant_percent, fold);
+    m.worst_point_percent = grid_figure(cov, RequirementFigure::worst_point_percent, fold);
+    m.max_gap_s = grid_figure(cov, RequirementFigure::max_gap_s, fold);
+    m.mean_gap_s = cov.total.gaps_by_fold.at(k).mean_gap_s;
+    m.p95_gap_s = grid_figure(cov, RequirementFigure::p95_gap_s, fold);
+    m.mean_response_time_s = grid_figure(cov, RequirementFigure::mean_response_time_s, fold);
     m.failed = failed_check_texts(judge_requirement(sweep.requirement, cov));
     m.mean_in_view = cov.total.mean_in_view;
     const ShellBudget& sb = bud.shells.at(sweep.shell_index);
