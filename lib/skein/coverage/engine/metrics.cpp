@@ -1,6 +1,9 @@
 #include "skein/coverage/engine/metrics.hpp"
 
 #include <algorithm>
+#include <bit>
+#include <cassert>
+#include <cstdint>
 #include <cmath>
 #include <numeric>
 
@@ -46,12 +49,22 @@ double weighted_quantile(std::vector<std::pair<float, double>>& sample, double q
 
 namespace {
 
-// The gaps of one point at fold k (1-based), in the order they closed.
+// Calls f(length_s) for each gap of one point at fold k (1-based), in the order they closed; no copy.
+template <class F>
+void for_each_gap(const PointState& ps, int k, F&& f) {
+  if (k == 1) {
+    for (float g : ps.gaps) f(g);
+    return;
+  }
+  for (const FoldGap& g : ps.fold_gaps)
+    if (g.fold == k) f(g.length_s);
+}
+
+// The gaps of one point at fold k, copied (for the per-point figures, which sort them).
 std::vector<float> gaps_at(const PointState& ps, int k) {
   if (k == 1) return ps.gaps;
   std::vector<float> out;
-  for (const FoldGap& g : ps.fold_gaps)
-    if (g.fold == k) out.push_back(g.length_s);
+  for_each_gap(ps, k, [&](float g) { out.push_back(g); });
   return out;
 }
 
@@ -91,7 +104,8 @@ void set_fold1_figures(Target& t, const GapFigures& f1) {
 }  // namespace
 
 CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::vector<size_t>& members,
-                            const std::vector<PointState>& state, int K, double total_weight) {
+                            const std::vector<PointState>& state, int K, double total_weight,
+                            std::vector<std::pair<float, double>>& pooled) {
   CoverageAggregate a;
   a.percent_by_fold.assign(static_cast<size_t>(K), 0.0);
   a.gaps_by_fold.assign(static_cast<size_t>(K), GapFigures{});
@@ -110,7 +124,6 @@ CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::ve
     for (double& v : a.percent_by_fold) v /= w;
     a.mean_in_view /= w;
   }
-  std::vector<std::pair<float, double>> pooled;
   for (int k = 1; k <= K; ++k) {
     GapFigures& f = a.gaps_by_fold[static_cast<size_t>(k - 1)];
     double gap_sum = 0.0, gap_weight = 0.0;
@@ -122,11 +135,11 @@ CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::ve
       f.max_gap_s = std::max(f.max_gap_s, pf.max_gap_s);
       f.gap_count += pf.gap_count;
       f.mean_response_time_s += pw * pf.mean_response_time_s;
-      for (float g : gaps_at(state[i], k)) {
+      for_each_gap(state[i], k, [&](float g) {
         gap_sum += pw * g;
         gap_weight += pw;
         pooled.emplace_back(g, pw);
-      }
+      });
     }
     if (w > 0.0) f.mean_response_time_s /= w;
     if (gap_weight > 0.0) {
@@ -138,6 +151,74 @@ CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::ve
   return a;
 }
 
+std::vector<double> gap_cdf(const std::vector<PointState>& state, const Grid& grid) {
+  // Bucket of a gap: the top bits of its float's bit pattern, which for non-negative floats grows with the
+  // value; 8 mantissa bits are kept, so a bucket spans a relative width of 2^-8.
+  constexpr int shift = 15;
+  constexpr size_t buckets = (std::uint32_t{0x7f800000u} >> shift) + 1;
+  const auto bucket_of = [](float g) {
+    assert(g >= 0.0f && std::isfinite(g));
+    return static_cast<size_t>(std::bit_cast<std::uint32_t>(g) >> shift);
+  };
+  std::vector<double> weight(buckets, 0.0);
+  size_t n = 0;
+  for (size_t p = 0; p < state.size(); ++p) {
+    const double w = grid.points[p].area_weight;
+    for (float g : state[p].gaps) weight[bucket_of(g)] += w;
+    n += state[p].gaps.size();
+  }
+  if (n == 0) return {};
+  double total = 0.0;
+  size_t first = buckets, last = 0;
+  for (size_t b = 0; b < buckets; ++b) {
+    if (weight[b] <= 0.0) continue;
+    total += weight[b];
+    first = std::min(first, b);
+    last = b;
+  }
+  // The bucket of each quantile (q = 0: the smallest gap), and the weight below it.
+  constexpr int quantiles = 101;
+  size_t at[quantiles];
+  double below_at[quantiles];
+  at[0] = first;
+  below_at[0] = 0.0;
+  {
+    size_t b = first;
+    double below = 0.0;
+    for (int q = 1; q < quantiles; ++q) {
+      const double target = q / 100.0 * total * (1.0 - 1e-12);
+      while (b < last && below + weight[b] < target) below += weight[b++];
+      at[q] = b;
+      below_at[q] = below;
+    }
+  }
+  // Gather the gaps of those buckets only, and order each by value.
+  std::vector<std::int32_t> slot(buckets, -1);
+  std::vector<std::vector<std::pair<float, double>>> gathered;
+  for (size_t b : at)
+    if (slot[b] < 0) {
+      slot[b] = static_cast<std::int32_t>(gathered.size());
+      gathered.emplace_back();
+    }
+  for (size_t p = 0; p < state.size(); ++p) {
+    const double w = grid.points[p].area_weight;
+    for (float g : state[p].gaps)
+      if (const std::int32_t s = slot[bucket_of(g)]; s >= 0) gathered[static_cast<size_t>(s)].emplace_back(g, w);
+  }
+  for (auto& v : gathered)
+    std::stable_sort(v.begin(), v.end(), [](const auto& x, const auto& y) { return x.first < y.first; });
+  std::vector<double> out;
+  out.push_back(gathered[static_cast<size_t>(slot[at[0]])].front().first);
+  for (int q = 1; q < quantiles; ++q) {
+    const double target = q / 100.0 * total * (1.0 - 1e-12);
+    const auto& v = gathered[static_cast<size_t>(slot[at[q]])];
+    double cum = below_at[q];
+    size_t i = 0;
+    while (i + 1 < v.size() && cum + v[i].second < target) cum += v[i++].second;
+    out.push_back(v[i].first);
+  }
+  return out;
+}
 
 void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointState>& state, const std::vector<double>& hist,
                      const std::vector<double>& worst_cos, const std::vector<std::int64_t>& worst_q, std::int64_t total_q,
@@ -192,9 +273,16 @@ void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointSta
     res.worst_instant_covered_percent.push_back(
         total_q > 0 ? 100.0 * static_cast<double>(worst_q[static_cast<size_t>(k)]) / static_cast<double>(total_q) : 0.0);
 
+  // One pool of (gap, weight) for every aggregate, sized once for the largest (all points' gaps, every fold).
+  std::vector<std::pair<float, double>> pooled;
+  {
+    size_t n = 0;
+    for (const PointState& ps : state) n += ps.gaps.size() + ps.fold_gaps.size();
+    pooled.reserve(n);
+  }
   std::vector<size_t> all(P);
   std::iota(all.begin(), all.end(), 0);
-  res.total = aggregate(res.points, all, state, K, 1.0);
+  res.total = aggregate(res.points, all, state, K, 1.0, pooled);
   const int nbands = static_cast<int>(std::lround(180.0 / band_width_deg));
   std::vector<std::vector<size_t>> members(static_cast<size_t>(nbands));
   for (size_t p = 0; p < P; ++p) {
@@ -206,25 +294,10 @@ void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointSta
     LatitudeBand band;
     band.lat_min_deg = -90.0 + b * band_width_deg;
     band.lat_max_deg = band.lat_min_deg + band_width_deg;
-    band.metrics = aggregate(res.points, members[static_cast<size_t>(b)], state, K, 1.0);
+    band.metrics = aggregate(res.points, members[static_cast<size_t>(b)], state, K, 1.0, pooled);
     res.bands.push_back(std::move(band));
   }
-  std::vector<std::pair<float, double>> pooled;
-  for (size_t p = 0; p < P; ++p)
-    for (float g : state[p].gaps) pooled.emplace_back(g, grid.points[p].area_weight);
-  if (!pooled.empty()) {
-    std::stable_sort(pooled.begin(), pooled.end(), [](const auto& x, const auto& y) { return x.first < y.first; });
-    double total = 0.0;
-    for (const auto& v : pooled) total += v.second;
-    res.gap_quantiles_s.push_back(pooled.front().first);
-    double cum = 0.0;
-    size_t i = 0;
-    for (int q = 1; q <= 100; ++q) {
-      const double target = q / 100.0 * total * (1.0 - 1e-12);
-      while (i + 1 < pooled.size() && cum + pooled[i].second < target) cum += pooled[i++].second;
-      res.gap_quantiles_s.push_back(pooled[i].first);
-    }
-  }
+  res.gap_quantiles_s = gap_cdf(state, grid);
 }
 
 }  // namespace skein::coverage_engine

@@ -13,9 +13,16 @@ namespace skein::coverage_engine {
 // The weighted quantile q of a sample in any order (reordered in place): the smallest value whose cumulative
 // weight, in ascending order of value, reaches q of the total. Expected O(n) (quickselect); 0 when empty.
 double weighted_quantile(std::vector<std::pair<float, double>>& sample, double q);
-// Area-weighted aggregate of the points `members` (metrics.cpp).
+// Area-weighted aggregate of the points `members` (metrics.cpp). `pooled` is scratch for the gap samples.
 CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::vector<size_t>& members,
-                            const std::vector<PointState>& state, int K, double total_weight);
+                            const std::vector<PointState>& state, int K, double total_weight,
+                            std::vector<std::pair<float, double>>& pooled);
+// The 0, 1, ..., 100 % area-weighted quantiles of every point's fold-1 gaps (empty when there are none): the
+// value where the cumulative weight of the gaps in ascending order first reaches q of the total, as a walk
+// over the sorted gaps gives it, but without sorting them all: the weights are summed into buckets of the
+// float's bit pattern (2^-8 relative width), and only the gaps of the <= 101 buckets where a quantile falls
+// are gathered and sorted. O(gaps) work and O(gaps in those buckets) memory beyond one 512 KiB table.
+std::vector<double> gap_cdf(const std::vector<PointState>& state, const Grid& grid);
 
 // The metrics of a finished run into `res` (whose run fields the driver set): per point (percent by fold from
 // the in-view time bins, required radius from the worst k-th nearest cosine, gaps, response time, in view),
