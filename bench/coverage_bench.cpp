@@ -157,6 +157,10 @@ void BM_coverage_sparse_day(benchmark::State& state) {
   state.counters["events"] = static_cast<double>(c.result.events);
   state.counters["culled_ns_per_event"] = rate(1e9 * c.wall_s, static_cast<double>(c.result.events));
   state.counters["culled_ns_per_point_step"] = rate(1e9 * c.wall_s, static_cast<double>(c.result.point_steps));
+  state.counters["culled_cpu_s"] = c.cpu_s;
+  state.counters["culled_distance_tests"] = static_cast<double>(c.result.distance_tests);
+  state.counters["culled_pair_tests"] = static_cast<double>(c.result.pair_tests);
+  state.counters["point_steps"] = static_cast<double>(c.result.point_steps);
   state.counters["peak_rss_mib"] = peak_rss_mib();
 }
 

@@ -24,6 +24,10 @@ struct PositionBuffer {
   // during the step (the outer angle at the largest orbit radius, plus the chord's half and the track's
   // deviation bound; hidden_pass.hpp). Constant over the run.
   double swept_reach_rad = 0.0;
+  // Culled mode: the largest chord |u_s(t_l) - u_s(t_{l-1})| of any satellite's unit vector over any step of
+  // the buffer (l >= 1). A ground point's k-th largest cosine to the satellites moves by at most this much
+  // per step in chord terms (row_sweep.cpp, "settled").
+  double step_chord_max = 0.0;
   // Culled mode only: per instant, the satellites sorted by geocentric latitude.
   std::vector<int> by_lat;
   std::vector<double> by_lat_sin;   // sin of the latitude, same order (contiguous for the binary searches)

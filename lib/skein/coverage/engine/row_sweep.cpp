@@ -236,8 +236,20 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
     top_sat.assign(n * static_cast<size_t>(K), -1);
     open.assign(n, 1);
     size_t open_points = n;
+    // A settled point also skips the next instants its margin provably covers: each satellite's unit vector
+    // moves by a chord of at most `chord` per step, so a point's distance (chord) to its k-th nearest
+    // satellite grows by at most that per step (the k-th smallest of functions that each move by at most
+    // `chord` moves by at most `chord`). While the bound from the remembered satellites plus the growth stays
+    // within the chord of the worst cosine so far (which only grows), no instant can lower it, and those
+    // instants are skipped, exactly as if each were found settled. 1e-9 absorbs rounding (chords are O(1)).
+    const double chord = buf.step_chord_max;
     for (size_t i = 0; i < n; ++i) {
       const size_t p = static_cast<size_t>(row.point[i]);
+      if (sw.settled_until[p] >= step) {
+        open[i] = 0;
+        --open_points;
+        continue;
+      }
       const int* nb = &sw.nearest[p * static_cast<size_t>(K)];
       if (nb[0] < 0) continue;
       double lower[max_fold_limit];
@@ -250,6 +262,15 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
       if (settled) {
         open[i] = 0;
         --open_points;
+        if (chord > 0.0) {
+          double slack = 4.0;
+          for (int k = 0; k < K; ++k)
+            slack = std::min(slack, std::sqrt(std::max(0.0, 2.0 - 2.0 * wc[k])) - std::sqrt(std::max(0.0, 2.0 - 2.0 * lower[k])));
+          // Whole steps (truncation is the floor here: only positive counts are used). Within this buffer
+          // only: its chord bound says nothing about the next chunk's steps.
+          const double steps = std::min((slack - 1e-9) / chord, 1e6);
+          if (steps >= 1.0) sw.settled_until[p] = std::min(c1 - 1, step + static_cast<long>(steps));
+        }
       }
     }
     if (open_points == 0) continue;
