@@ -262,19 +262,32 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
                                    spec.deployment->deadline_days, std::ceil(dep.fastest_days * 10.0) / 10.0));
     const DeploymentPoint& c = *dep.chosen;
     std::string basis = fmt::format("{:.1f} days to deploy (deadline {} days)", c.days, spec.deployment->deadline_days);
+    double drift_drag_m_s = 0.0;
     if (c.plane_plan >= 0) {
       const DriftPlan& p = dep.planes[static_cast<size_t>(c.plane_plan)];
       basis += fmt::format("; planes drift {} km below/above the shell ({} low, {} high; node rate {:+.4f}/{:+.4f} "
                            "deg/day relative) for {:.1f} days",
                            p.offset_km, p.lower_groups, p.higher_groups, p.lower_rate_deg_day, p.higher_rate_deg_day,
                            p.days);
+      // Drag on the lower drift orbit, made up like the shell's (deadband, Hohmann pairs) over the whole plane
+      // drift: added to the line (the plan's choice itself does not weigh it).
+      if (p.lower_groups > 0) {
+        const double a_low = shell.a_km - p.offset_km;
+        const Makeup low = drag_makeup(earth, atm, b, a_low, 0.0, p.days, spec.deadband_km, reentry_km);
+        if (low.reentered)
+          out.cannot_fly.push_back(fmt::format("the lower deployment drift orbit at {:.1f} km re-enters within one "
+                                               "deadband cycle; expected smaller plane_offsets_km",
+                                               a_low - earth.radius_km));
+        drift_drag_m_s = low.dv_m_s;
+        basis += fmt::format(", plus {:.2f} m/s of drag make-up at {:.1f} km", drift_drag_m_s, a_low - earth.radius_km);
+      }
     }
     if (c.phasing_plan >= 0) {
       const DriftPlan& p = dep.phasing[static_cast<size_t>(c.phasing_plan)];
       basis += fmt::format("; then slots drift {} km off for {:.1f} days", p.offset_km, p.days);
     }
     basis += inj_propulsion_basis(spec.injection->propulsion);
-    out.dv_lines.push_back({"deployment", c.dv_m_s, basis});
+    out.dv_lines.push_back({"deployment", c.dv_m_s + drift_drag_m_s, basis});
     out.deployment = std::move(dep);
   }
 
@@ -401,8 +414,10 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
   // With one isp for both this is exactly m_dry (exp(total dv / c) - 1).
   // The deployment, flown between the raise and station keeping, burns at the raising engine's isp too.
   const double raise_total_m_s = out.raising ? out.raising->dv_m_s * (1.0 + spec.margin_percent / 100.0) : 0.0;
-  const double deploy_total_m_s =
-      out.deployment ? out.deployment->chosen->dv_m_s * (1.0 + spec.margin_percent / 100.0) : 0.0;
+  double deploy_dv_m_s = 0.0;
+  for (const auto& l : out.dv_lines)
+    if (l.name == "deployment") deploy_dv_m_s = l.dv_m_s;
+  const double deploy_total_m_s = deploy_dv_m_s * (1.0 + spec.margin_percent / 100.0);
   const double keep_total_m_s = out.total_dv_m_s - raise_total_m_s - deploy_total_m_s;
   if (out.raising) {
     RaisingFigures& rf = *out.raising;

@@ -160,19 +160,21 @@ DeploymentResult plan_deployment(const DeploymentOptions& o) {
   auto trade = [&](const std::vector<double>& offsets, const std::vector<Entry>& entries, RateFn rate,
                    std::vector<DriftPlan>& out, std::string_view what, std::string_view key) {
     if (!moves(entries)) return;
-    std::vector<std::string> why_all;
+    std::vector<std::pair<std::string, std::string>> why_all;  // reason, the offsets (km) that gave it
     for (double h : offsets) {
       std::string why;
       if (auto p = drift_plan(o, h, entries, rate, why)) {
         out.push_back(*p);
       } else {
         r.skipped.push_back(fmt::format("{} offset {} km: {}", what, h, why));
-        why_all.push_back(fmt::format("{} km: {}", h, why));
+        auto same = std::find_if(why_all.begin(), why_all.end(), [&](const auto& w) { return w.first == why; });
+        if (same == why_all.end()) why_all.push_back({why, fmt::format("{}", h)});
+        else same->second += fmt::format(", {}", h);
       }
     }
     if (out.empty()) {
       std::string joined;
-      for (const auto& w : why_all) joined += (joined.empty() ? "" : "; ") + w;
+      for (const auto& w : why_all) joined += (joined.empty() ? "" : "; ") + w.second + " km: " + w.first;
       throw InputError(fmt::format("budget.deployment.{}: no offset spreads the {} ({}); expected offsets for which "
                                    "every group can drift to its share",
                                    key, what == "plane" ? "planes" : "slots", joined));
