@@ -297,6 +297,17 @@ TEST_CASE("deployment line in the budget: the chosen plan, its propellant at the
   // One isp for everything: the propellant is exactly m_dry (exp(total / c) - 1) (Tsiolkovsky).
   REQUIRE(s.propellant_kg);
   CHECK(*s.propellant_kg == doctest::Approx(propellant_mass_kg(150.0, s.total_dv_m_s, 220.0)).epsilon(1e-9));
+  // A shell made elsewhere (a sweep layout) whose deadline no plan meets: the fastest plan is budgeted and the
+  // budget cannot be flown, saying why.
+  Design late = d;
+  late.budget.deployment->deadline_days = 1.0;
+  const BudgetResult late_budget = compute_budget(late, quick());
+  const ShellBudget& ls = late_budget.shells.front();
+  REQUIRE(ls.deployment);
+  CHECK_FALSE(ls.flyable());
+  REQUIRE_FALSE(ls.cannot_fly.empty());
+  CHECK(ls.cannot_fly.front().find("shorter than any deployment") != std::string::npos);
+  CHECK(ls.deployment->chosen->days == doctest::Approx(ls.deployment->fastest_days));
   // A deadline below the fastest plan is refused at its position, naming the shortest achievable time.
   CHECK_THROWS_WITH_AS(
       read_design_text(design_text("  injection:\n    altitude_km: 400\n", "  deployment:\n    deadline_days: 20\n"), "t.yaml"),

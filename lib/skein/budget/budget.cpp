@@ -251,15 +251,17 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
   }
 
   // (0b) plane deployment by differential J2 drift (budget.deployment, with the injection's propulsion): the
-  // least delta-v plan within the deadline. The reader refuses a deadline no plan meets at its position; shells
-  // made elsewhere (sweep layouts) are refused here.
+  // least delta-v plan within the deadline. The reader refuses a deadline no plan meets at its position; for
+  // shells made elsewhere (sweep layouts) the fastest plan is budgeted and the budget cannot be flown.
   if (spec.deployment && spec.injection) {
     DeploymentResult dep = plan_deployment(deployment_options(design, shell));
-    if (!dep.chosen)
-      throw InputError(fmt::format("budget.deployment.deadline_days = {} days is shorter than any deployment of the "
-                                   "shell's planes and slots; the shortest achievable is {:.1f} days (with the largest "
-                                   "offsets); expected a deadline of at least that, or larger offsets",
-                                   spec.deployment->deadline_days, std::ceil(dep.fastest_days * 10.0) / 10.0));
+    if (!dep.chosen) {  // a sweep layout: budget the fastest plan and say the deadline cannot be met
+      out.cannot_fly.push_back(fmt::format("budget.deployment.deadline_days = {} days is shorter than any deployment "
+                                           "of the shell's planes and slots; the shortest achievable is {:.1f} days "
+                                           "(with the largest offsets)",
+                                           spec.deployment->deadline_days, std::ceil(dep.fastest_days * 10.0) / 10.0));
+      dep.chosen = dep.curve.front();
+    }
     const DeploymentPoint& c = *dep.chosen;
     std::string basis = fmt::format("{:.1f} days to deploy (deadline {} days)", c.days, spec.deployment->deadline_days);
     double drift_drag_m_s = 0.0;
