@@ -5,6 +5,7 @@
 #include "skein/budget/budget.hpp"
 #include "skein/input/design_file.hpp"
 #include "skein/report/budget_tables.hpp"
+#include "skein/report/deployment_tables.hpp"
 
 namespace skein::cli {
 
@@ -37,6 +38,9 @@ void add_budget_command(CLI::App& app) {
     } else {
       print_stdout(render_text(budget_shell_table(result)) + "\n" + render_text(budget_lines_table(result)) + "\n" +
                    render_text(lifetime_by_level_table(result)));
+      for (const auto& shell : result.shells)
+        if (shell.deployment)
+          print_stdout("\n" + render_text(deployment_plans_table(shell)) + "\n" + render_text(deployment_curve_table(shell)));
     }
   });
 }

@@ -134,6 +134,15 @@ void require_finite_figures(const ShellBudget& s, const Spacecraft& sc) {
     refuse("the fleet propellant mass", *s.fleet_propellant_kg, "the per-satellite mass times the satellite count overflows");
 }
 
+// The formula and sources of the deployment line's transfers.
+std::string inj_propulsion_basis(RaisingPropulsion propulsion) {
+  return propulsion == RaisingPropulsion::chemical
+             ? "; node rate dOmega/dt = -3/2 n J2 (Re/a)^2 cos i and slot rate dM/dt + domega/dt (Vallado 2013 eq. "
+               "9-41), a Hohmann pair there and back (Vallado sec. 6.3); worst satellite"
+             : "; node rate dOmega/dt = -3/2 n J2 (Re/a)^2 cos i and slot rate dM/dt + domega/dt (Vallado 2013 eq. "
+               "9-41), Edelbaum |v0 - v1| there and back at constant thrust (Edelbaum 1961); worst satellite";
+}
+
 // One shell's budget. Its InputErrors do not name the file or the shell: compute_budget adds both.
 ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel level, double phase0,
                          const BudgetOptions& options) {
@@ -239,6 +248,49 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
     rf.isp_s = inj.isp_s.value_or(sc.isp_s.value_or(0.0));
     out.raising = rf;
     out.dv_lines.push_back({"raising", rf.dv_m_s, ""});
+  }
+
+  // (0b) plane deployment by differential J2 drift (budget.deployment, with the injection's propulsion): the
+  // least delta-v plan within the deadline. The reader refuses a deadline no plan meets at its position; for
+  // shells made elsewhere (sweep layouts) the fastest plan is budgeted and the budget cannot be flown.
+  if (spec.deployment && spec.injection) {
+    DeploymentResult dep = plan_deployment(deployment_options(design, shell));
+    if (!dep.chosen) {  // a sweep layout: budget the fastest plan and say the deadline cannot be met
+      out.cannot_fly.push_back(fmt::format("budget.deployment.deadline_days = {} days is shorter than any deployment "
+                                           "of the shell's planes and slots; the shortest achievable is {:.1f} days "
+                                           "(with the largest offsets)",
+                                           spec.deployment->deadline_days, std::ceil(dep.fastest_days * 10.0) / 10.0));
+      dep.chosen = dep.curve.front();
+    }
+    const DeploymentPoint& c = *dep.chosen;
+    std::string basis = fmt::format("{:.1f} days to deploy (deadline {} days)", c.days, spec.deployment->deadline_days);
+    double drift_drag_m_s = 0.0;
+    if (c.plane_plan >= 0) {
+      const DriftPlan& p = dep.planes[static_cast<size_t>(c.plane_plan)];
+      basis += fmt::format("; planes drift {} km below/above the shell ({} low, {} high; node rate {:+.4f}/{:+.4f} "
+                           "deg/day relative) for {:.1f} days",
+                           p.offset_km, p.lower_groups, p.higher_groups, p.lower_rate_deg_day, p.higher_rate_deg_day,
+                           p.days);
+      // Drag on the lower drift orbit, made up like the shell's (deadband, Hohmann pairs) over the whole plane
+      // drift: added to the line (the plan's choice itself does not weigh it).
+      if (p.lower_groups > 0) {
+        const double a_low = shell.a_km - p.offset_km;
+        const Makeup low = drag_makeup(earth, atm, b, a_low, 0.0, p.days, spec.deadband_km, reentry_km);
+        if (low.reentered)
+          out.cannot_fly.push_back(fmt::format("the lower deployment drift orbit at {:.1f} km re-enters within one "
+                                               "deadband cycle; expected smaller plane_offsets_km",
+                                               a_low - earth.radius_km));
+        drift_drag_m_s = low.dv_m_s;
+        basis += fmt::format(", plus {:.2f} m/s of drag make-up at {:.1f} km", drift_drag_m_s, a_low - earth.radius_km);
+      }
+    }
+    if (c.phasing_plan >= 0) {
+      const DriftPlan& p = dep.phasing[static_cast<size_t>(c.phasing_plan)];
+      basis += fmt::format("; then slots drift {} km off for {:.1f} days", p.offset_km, p.days);
+    }
+    basis += inj_propulsion_basis(spec.injection->propulsion);
+    out.dv_lines.push_back({"deployment", c.dv_m_s + drift_drag_m_s, basis});
+    out.deployment = std::move(dep);
   }
 
   // (a) drag make-up
@@ -362,13 +414,22 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
   // Propellant: the raise is flown first, so the station-keeping propellant (its lines and their margin, at
   // spacecraft.isp_s) is carried through it; the raise (and its margin share) burns at the raising engine's isp.
   // With one isp for both this is exactly m_dry (exp(total dv / c) - 1).
+  // The deployment, flown between the raise and station keeping, burns at the raising engine's isp too.
   const double raise_total_m_s = out.raising ? out.raising->dv_m_s * (1.0 + spec.margin_percent / 100.0) : 0.0;
-  const double keep_total_m_s = out.total_dv_m_s - raise_total_m_s;
+  double deploy_dv_m_s = 0.0;
+  for (const auto& l : out.dv_lines)
+    if (l.name == "deployment") deploy_dv_m_s = l.dv_m_s;
+  const double deploy_total_m_s = deploy_dv_m_s * (1.0 + spec.margin_percent / 100.0);
+  const double keep_total_m_s = out.total_dv_m_s - raise_total_m_s - deploy_total_m_s;
   if (out.raising) {
     RaisingFigures& rf = *out.raising;
     const InjectionSpec& inj = *spec.injection;
     if (rf.isp_s > 0.0) {
-      const double carried = sc.isp_s ? propellant_mass_kg(sc.dry_mass_kg, keep_total_m_s, *sc.isp_s) : 0.0;
+      double carried = sc.isp_s ? propellant_mass_kg(sc.dry_mass_kg, keep_total_m_s, *sc.isp_s) : 0.0;
+      if (out.deployment) {
+        out.deployment_propellant_kg = propellant_mass_kg(sc.dry_mass_kg + carried, deploy_total_m_s, rf.isp_s);
+        carried += *out.deployment_propellant_kg;
+      }
       rf.propellant_kg = propellant_mass_kg(sc.dry_mass_kg + carried, raise_total_m_s, rf.isp_s);
       if (inj.thrust_n) {
         const double m0 = sc.dry_mass_kg + carried + *rf.propellant_kg;
@@ -399,6 +460,7 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
   }
   if (sc.isp_s) {
     out.propellant_kg = out.raising ? propellant_mass_kg(sc.dry_mass_kg, keep_total_m_s, *sc.isp_s) +
+                                          out.deployment_propellant_kg.value_or(0.0) +
                                           out.raising->propellant_kg.value_or(0.0)
                                     : propellant_mass_kg(sc.dry_mass_kg, out.total_dv_m_s, *sc.isp_s);
     out.fleet_propellant_kg = *out.propellant_kg * shell.satellites;

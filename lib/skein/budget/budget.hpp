@@ -8,6 +8,7 @@
 
 #include "skein/atmosphere/atmosphere.hpp"
 #include "skein/atmosphere/solar_activity.hpp"
+#include "skein/budget/deployment.hpp"
 #include "skein/design/design.hpp"
 #include "skein/lifetime/decay.hpp"
 
@@ -26,7 +27,7 @@ struct BudgetOptions {
 
 // One budget line, per satellite, over the mission life.
 struct DvLine {
-  std::string name;    // raising (with budget.injection), drag_makeup, node_drift_control, sso_inclination,
+  std::string name;    // raising (with budget.injection), deployment (with budget.deployment), drag_makeup, node_drift_control, sso_inclination,
                        // slot_keeping, collision_avoidance, disposal, margin
   double dv_m_s = 0.0;
   std::string basis;   // how it was computed, for tables and the report
@@ -81,6 +82,8 @@ struct ShellBudget {
   std::string propellant_missing;       // why propellant_kg is absent ("no isp_s"); empty when computed
   bool exceeds_tank = false;            // propellant_kg above spacecraft.propellant_capacity_kg
   std::optional<RaisingFigures> raising;  // when the design has budget.injection
+  std::optional<DeploymentResult> deployment;  // when the design has budget.deployment (its chosen point is set)
+  std::optional<double> deployment_propellant_kg;  // burnt by the deployment (its margin share included)
   // (f) disposal
   double disposal_perigee_km = 0.0;     // perigee altitude after the disposal burn
   std::optional<double> disposal_lifetime_days;  // natural lifetime after disposal (natural-decay mode)

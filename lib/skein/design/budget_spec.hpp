@@ -3,6 +3,7 @@
 // station-keeping line. Every field has a stated default, used when the block or the key is absent.
 #include <optional>
 #include <string_view>
+#include <vector>
 
 #include "skein/atmosphere/atmosphere.hpp"
 #include "skein/atmosphere/solar_activity.hpp"
@@ -44,6 +45,13 @@ struct InjectionSpec {
   std::optional<double> isp_s;             // isp_s of the raising engine; default spacecraft.isp_s
 };
 
+// Plane deployment by differential J2 drift (budget.deployment; needs budget.injection for its propulsion).
+struct DeploymentSpec {
+  double deadline_days = 0.0;                 // deadline_days: the plan chosen is the least delta-v one within it
+  std::vector<double> plane_offsets_km = {25, 50, 75, 100, 150, 200};  // plane_offsets_km: drift offsets traded
+  std::vector<double> phasing_offsets_km = {1, 2, 5, 10, 20};          // phasing_offsets_km: in-plane spreading
+};
+
 struct BudgetSpec {
   bool present = false;                          // the design has a budget block
   double mission_life_years = 5.0;               // mission_life_years
@@ -73,6 +81,7 @@ struct BudgetSpec {
   double disposal_rule_years = 5.0;              // disposal.rule_years (natural-decay)
   double margin_percent = 10.0;                  // margin_percent
   std::optional<InjectionSpec> injection;        // injection: none means no raising line
+  std::optional<DeploymentSpec> deployment;      // deployment: none means no deployment line
 };
 
 

@@ -65,6 +65,35 @@ InjectionSpec read_injection(const yaml::MapReader& budget, double reentry_altit
   return inj;
 }
 
+// budget.deployment: the deadline and the drift offsets traded (the plan itself is checked in design_file.cpp,
+// where the shells are known).
+DeploymentSpec read_deployment(const yaml::MapReader& budget) {
+  const yaml::MapReader m = budget.map("deployment", {"deadline_days", "plane_offsets_km", "phasing_offsets_km"});
+  DeploymentSpec dep;
+  dep.deadline_days = m.number("deadline_days", 0.0, 36525.0, "a deployment deadline in days (above 0, at most 36525)");
+  if (!(dep.deadline_days > 0.0))
+    m.fail_key("deadline_days", fmt::format("deadline {} days is not positive; expected a deadline above 0 days",
+                                            dep.deadline_days));
+  auto offsets = [&](std::string_view key, double max_km, std::vector<double>& out) {
+    if (!m.has(key)) return;
+    const auto items = m.sequence(key);
+    if (items.size() > 64) m.fail_key(key, fmt::format("{} offsets; expected at most 64", items.size()));
+    out.clear();
+    for (size_t k = 0; k < items.size(); ++k) {
+      const std::string path = fmt::format("{}[{}]", m.path_of(key), k);
+      const double h = yaml::scalar_number(m.file(), items[k], path, -1e9, 1e9, "a drift-altitude offset in km");
+      if (!(h > 0.0) || h > max_km)
+        yaml::fail_at(m.file(), items[k], path,
+                      fmt::format("offset {} km is {}; expected an offset above 0 and at most {} km", h,
+                                  h > 0.0 ? "too large" : "not positive", max_km));
+      out.push_back(h);
+    }
+  };
+  offsets("plane_offsets_km", 2000.0, dep.plane_offsets_km);
+  offsets("phasing_offsets_km", 200.0, dep.phasing_offsets_km);
+  return dep;
+}
+
 }  // namespace
 
 BudgetSpec read_budget_spec(const yaml::MapReader& root) {
@@ -73,7 +102,8 @@ BudgetSpec read_budget_spec(const yaml::MapReader& root) {
   const yaml::MapReader m = root.map(
       "budget", {"mission_life_years", "atmosphere", "harris_priester_exponent", "solar_activity", "solar_cycle_phase",
                  "solar_minimum_date", "reentry_altitude_km", "deadband_km", "injection_sigma", "node_control",
-                 "sso_inclination_control", "slot_keeping", "collision_avoidance", "disposal", "margin_percent", "injection"});
+                 "sso_inclination_control", "slot_keeping", "collision_avoidance", "disposal", "margin_percent", "injection",
+                 "deployment"});
   spec.present = true;
   spec.mission_life_years =
       m.optional_number("mission_life_years", 0.01, 100.0, "a mission life in years (0.01 to 100)").value_or(5.0);
@@ -137,6 +167,12 @@ BudgetSpec read_budget_spec(const yaml::MapReader& root) {
   }
   spec.margin_percent = m.optional_number("margin_percent", 0.0, 200.0, "a margin in percent").value_or(10.0);
   if (m.has("injection")) spec.injection = read_injection(m, spec.reentry_altitude_km);
+  if (m.has("deployment")) {
+    if (!spec.injection)
+      m.fail_key("deployment", "the deployment plan starts from the injection orbit and uses its propulsion; expected "
+                               "budget.injection as well");
+    spec.deployment = read_deployment(m);
+  }
   return spec;
 }
 

@@ -7,6 +7,7 @@
 #include <fmt/format.h>
 
 #include "skein/input/budget_block.hpp"
+#include "skein/budget/deployment.hpp"
 #include "skein/input/coverage_block.hpp"
 #include "skein/input/ground_stations_block.hpp"
 #include "skein/input/yaml_reader.hpp"
@@ -304,6 +305,25 @@ Design read_design(const YAML::Node& root_node, const std::string& file) {
                                   *d.budget.injection->inclination_deg,
                                   std::abs(*d.budget.injection->inclination_deg - shell.inclination_deg), shell.name,
                                   shell.inclination_deg));
+  // The deployment deadline against the fastest plan of every shell, here where its position is known.
+  if (d.budget.deployment) {
+    const YAML::Node dep = root.node("budget")["deployment"];
+    for (const auto& shell : d.shells) {
+      DeploymentResult plan;
+      try {
+        plan = plan_deployment(deployment_options(d, shell));
+      } catch (const InputError& e) {
+        yaml::fail_at(file, dep, "budget.deployment", fmt::format("shell {}: {}", shell.name, e.what()));
+      }
+      if (!plan.chosen)
+        yaml::fail_at(file, dep["deadline_days"], "budget.deployment.deadline_days",
+                      fmt::format("deadline {} days is shorter than any deployment of shell {}: the shortest achievable "
+                                  "is {:.1f} days (with the largest offsets); expected a deadline of at least that, or "
+                                  "larger offsets",
+                                  d.budget.deployment->deadline_days, shell.name,
+                                  std::ceil(plan.fastest_days * 10.0) / 10.0));
+    }
+  }
   d.ground_stations = read_ground_stations(root);
   return d;
 }

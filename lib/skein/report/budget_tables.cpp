@@ -3,6 +3,7 @@
 #include <string>
 
 #include "skein/constants.hpp"
+#include "skein/report/deployment_tables.hpp"
 
 namespace skein {
 namespace {
@@ -124,6 +125,8 @@ nlohmann::ordered_json budget_to_json(const BudgetResult& r, double re) {
                        {"propellant_kg", opt_json(f.propellant_kg)},
                        {"transfer_days", opt_json(f.transfer_days)}};
     }
+    if (s.deployment)  // only with budget.deployment, so designs without it keep their JSON unchanged
+      o["deployment"] = deployment_to_json(s);
     o["total_dv_m_s"] = s.total_dv_m_s;
     o["fleet_dv_m_s"] = s.fleet_dv_m_s;
     o["propellant_kg"] = opt_json(s.propellant_kg);

@@ -13,6 +13,8 @@
 #include "skein/drift/beta_eclipse.hpp"
 #include "skein/drift/drift_summary.hpp"
 #include "skein/report/budget_tables.hpp"
+#include "skein/report/deployment_plot.hpp"
+#include "skein/report/deployment_tables.hpp"
 #include "skein/report/contact_tables.hpp"
 #include "skein/report/coverage_tables.hpp"
 #include "skein/report/layout_tables.hpp"
@@ -116,6 +118,11 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
     tables.push_back({"contact_gaps", contact_gap_table(contacts)});
     tables.push_back({"contacts", contact_pair_table(contacts)});
   }
+  for (const auto& sh : rep.budget.shells)
+    if (sh.deployment) {
+      tables.push_back({"deployment_plans_" + sh.name, deployment_plans_table(sh)});
+      tables.push_back({"deployment_curve_" + sh.name, deployment_curve_table(sh)});
+    }
   tables.push_back({"run_record", run_record_table(design, rep.coverage, rep.budget, options.record)});
   for (const auto& sh : rep.budget.shells)
     for (const auto& dec : sh.decay)
@@ -137,6 +144,11 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
   for (const auto& sh : rep.budget.shells)
     figures.push_back({"decay_" + sh.name, "Natural decay of the mean altitude of shell " + sh.name + " under each solar level",
                        decay_curves_svg(sh, design.earth.radius_km)});
+  for (const auto& sh : rep.budget.shells)
+    if (sh.deployment)
+      figures.push_back({"deployment_" + sh.name,
+                         "Deployment of shell " + sh.name + ": delta-v per satellite against days to full deployment",
+                         deployment_curve_svg(sh)});
   figures.push_back({"beta_angle", "Beta angle of each plane over the year from the epoch", beta_angle_svg(beta_eclipse)});
   figures.push_back({"eclipse_minutes", "Eclipse minutes per orbit of each plane over the year (cylindrical shadow)",
                      eclipse_minutes_svg(beta_eclipse)});
