@@ -258,6 +258,9 @@ for where, text in (("summary.md", answer_md), ("index.html", answer_html)):
         for row in req["checks"]:
             if row["met"] == "no" and row["figure"] not in text:
                 fail(f"{where}: failing check {row['figure']} not listed in the answer")
+            for site in (row["failing_sites"] or "").split("; ") if row["met"] == "no" else []:
+                if site and site not in text:
+                    fail(f"{where}: failing site {site!r} of {row['figure']} not named in the answer")
 print(f"reading order: answer first ({len(budget['shells'])} budget lines, "
       f"{'a verdict' if coverage.get('requirement') else 'no requirement'}), sections {sections_md}")
 

@@ -160,7 +160,8 @@ ReportAnswer report_answer(const CoverageResult& c, const BudgetResult& b) {
     a.headline.push_back(fmt::format(
         "Coverage ({}): {:.1f} % of the time with at least one satellite in view ({}); longest revisit gap {}; "
         "mean response {}.",
-        grid, c.total.percent_by_fold[0], c.grid == GridKind::sites ? "mean over the sites" : "area-weighted", duration(c.total.max_gap_s), duration(c.total.mean_response_time_s)));
+        grid, c.total.percent_by_fold[0], c.grid == GridKind::sites ? "mean over the sites" : "area-weighted",
+        duration(c.total.max_gap_s), duration(c.total.mean_response_time_s)));
     // The fold the requirement is judged at, else fold 2 when reported.
     const int k = c.requirement ? c.requirement->fold : (c.max_fold >= 2 ? 2 : 1);
     if (k >= 2 && static_cast<size_t>(k) <= c.total.percent_by_fold.size()) {
