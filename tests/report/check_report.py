@@ -73,28 +73,30 @@ else:
             fail(f"{rel} differs between two identical runs")
 print(f"report: {len(fa)} files, reproducible")
 
-# 2. GeoJSON
-with open(os.path.join(a, "exports", "coverage_cells.geojson")) as f:
-    gj = json.load(f)
-if gj.get("type") != "FeatureCollection":
-    fail("GeoJSON is not a FeatureCollection")
-weight = 0.0
-for k, feat in enumerate(gj["features"]):
-    ring = feat["geometry"]["coordinates"][0]
-    if feat["geometry"]["type"] != "Polygon" or len(ring) < 4 or ring[0] != ring[-1]:
-        fail(f"feature {k}: not a closed Polygon ring")
-        break
-    area2 = sum(ring[j][0] * ring[j + 1][1] - ring[j + 1][0] * ring[j][1] for j in range(len(ring) - 1))
-    if area2 <= 0:
-        fail(f"feature {k}: ring is clockwise")
-        break
-    if any(not (-180 <= p[0] <= 180 and -90 <= p[1] <= 90) for p in ring):
-        fail(f"feature {k}: position out of range or not [lon, lat]")
-        break
-    weight += feat["properties"]["area_weight"]
-if not math.isclose(weight, 1.0, rel_tol=1e-9):
-    fail(f"GeoJSON area weights sum to {weight}, expected 1")
-print(f"geojson: {len(gj['features'])} cells checked")
+# 2. GeoJSON (grids with cells; a sites grid has none)
+geojson_path = os.path.join(a, "exports", "coverage_cells.geojson")
+if os.path.exists(geojson_path):
+    with open(geojson_path) as f:
+        gj = json.load(f)
+    if gj.get("type") != "FeatureCollection":
+        fail("GeoJSON is not a FeatureCollection")
+    weight = 0.0
+    for k, feat in enumerate(gj["features"]):
+        ring = feat["geometry"]["coordinates"][0]
+        if feat["geometry"]["type"] != "Polygon" or len(ring) < 4 or ring[0] != ring[-1]:
+            fail(f"feature {k}: not a closed Polygon ring")
+            break
+        area2 = sum(ring[j][0] * ring[j + 1][1] - ring[j + 1][0] * ring[j][1] for j in range(len(ring) - 1))
+        if area2 <= 0:
+            fail(f"feature {k}: ring is clockwise")
+            break
+        if any(not (-180 <= p[0] <= 180 and -90 <= p[1] <= 90) for p in ring):
+            fail(f"feature {k}: position out of range or not [lon, lat]")
+            break
+        weight += feat["properties"]["area_weight"]
+    if not math.isclose(weight, 1.0, rel_tol=1e-9):
+        fail(f"GeoJSON area weights sum to {weight}, expected 1")
+    print(f"geojson: {len(gj['features'])} cells checked")
 
 # 3. OEM
 check = json.loads(run("check", design, "--format", "json"))
@@ -279,5 +281,27 @@ if page.count("<table") != len(re.findall(r'<div class="table-box"[^>]*>\n<table
 if ".table-box{max-width:100%;overflow-x:auto" not in page or "img,svg{max-width:100%" not in page:
     fail("index.html: the scroll box or the image width rule is missing from the style")
 print("index.html: figures beside their tables, tables in scroll boxes")
+
+# 7. Site grids: the pass list holds, per site, as many passes as the per-site table counts (passes per day x
+# days of span), each with rise <= time of maximum <= set and duration = set - rise, and `skein coverage --format
+# json` carries the same list.
+passes_path = os.path.join(a, "tables", "site_passes.json")
+if os.path.exists(passes_path):
+    passes = json.load(open(passes_path))["rows"]
+    sites = json.load(open(os.path.join(a, "tables", "coverage_sites.json")))["rows"]
+    days = coverage["span_s"] / 86400.0
+    for site in sites:
+        listed = [p for p in passes if p["site"] == site["name"]]
+        if len(listed) != round(site["passes_per_day"] * days):
+            fail(f"site {site['name']!r}: {len(listed)} passes listed, the per-site table counts "
+                 f"{site['passes_per_day'] * days}")
+        for p in listed:
+            if not (p["rise_s"] <= p["set_s"] and abs(p["duration_min"] * 60 - (p["set_s"] - p["rise_s"])) < 1e-6
+                    and p["max_elevation_deg"] >= coverage["min_elevation_deg"] - 1e-6):
+                fail(f"site {site['name']!r}: pass {p} is not consistent")
+                break
+    if coverage.get("site_passes") != passes:
+        fail("skein coverage --format json: site_passes differ from the report's tables/site_passes.json")
+    print(f"site passes: {len(passes)} passes over {len(sites)} sites agree with the per-site table and skein coverage")
 print(f"report checks: {0 if failures else 1} passed, {1 if failures else 0} failed")
 sys.exit(1 if failures else 0)
