@@ -144,7 +144,7 @@ const std::string sites =
 
 }  // namespace
 
-TEST_CASE("site pass list: rise, set and peak elevation against a 1 s brute force; counts equal the coverage's") {
+TEST_CASE("site pass list: rise, set and peak elevation against a 1 s brute force, and the counts equal the coverage evaluator counts") {
   // 8 satellites in 2 planes at 520 km plus an eccentric one, 12 h, 10 deg mask.
   const Design d = read_design_text(
       test::coverage_design_head() + test::walker_shell(8, 2, 1, 520.0, 72.0) +
