@@ -114,7 +114,11 @@ std::string html_item(const ResolvedItem& it) {
            " (plots/" + html_escape(f.file) + ".svg)</figcaption>\n</figure>\n";
   }
   const NamedTable& t = *it.table;
-  if (t.file == "site_passes") return t.table.rows.empty() ? "" : folded_by_first_column(t.table);
+  if (t.file == "site_passes")
+    return t.table.rows.empty() ? ""
+                                : "<p>Passes over each site (open a site to see its list; all of them in "
+                                  "<code>tables/site_passes.csv</code> and <code>.json</code>):</p>\n" +
+                                      folded_by_first_column(t.table);
   if (long_table(t.file)) return "";
   return "<div class=\"table-box\" id=\"table-" + html_escape(t.file) + "\">\n" + render_html(t.table) + "</div>\n";
 }
