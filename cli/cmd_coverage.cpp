@@ -90,7 +90,11 @@ void add_coverage_command(CLI::App& app) {
     if (!opt->points_file.empty()) write_file_atomic(opt->points_file, render_csv(coverage_point_table(result)));
     const OutputFormat f = format_of(opt->format);
     if (f == OutputFormat::json) {
-      print_stdout(coverage_json(result).dump(2) + "\n");
+      nlohmann::ordered_json j = coverage_json(result);
+      // Site grids: every pass over every site (the report's tables/site_passes.*).
+      if (result.grid == GridKind::sites)
+        j["site_passes"] = rows_to_json(site_pass_table(result, find_site_passes(design, result), design.epoch));
+      print_stdout(j.dump(2) + "\n");
     } else if (f == OutputFormat::csv) {
       print_stdout(render_csv(result.grid == GridKind::sites ? coverage_site_table(result) : bands));
     } else {

@@ -287,7 +287,7 @@ void check_oem(const skein::Design& design, const std::vector<skein::Satellite>&
 
 void check_pages(const skein::Design& design, const std::vector<skein::NamedTable>& tables,
                  const std::vector<skein::Figure>& figures, const std::vector<std::string>& warnings) {
-  const std::string md = skein::summary_markdown(design, tables, warnings);
+  const std::string md = skein::summary_markdown(design, tables, figures, warnings);
   no_control_but_newline(md, "summary.md");
   no_script(md, "summary.md");
   const std::string html = skein::html_page(design, tables, figures, warnings);

@@ -11,6 +11,13 @@ usage: check_report.py SKEIN DESIGN WORKDIR
    the orbit's perigee..apogee radius from `skein check --format json`.
 4. Every table in summary.md equals, cell by cell, the report's tables/*.json at the column's decimals, and
    those JSON rows equal the `--format json` output of `skein drift`, `skein coverage` and `skein budget`.
+5. The run record: design copy, hash, version, command.
+6. Reading order (issue 16, item 3): both pages open with the answer before any section: the requirement's
+   verdict (as `skein coverage` states it) with each failing check, one line per shell of `skein check`, the
+   headline coverage figure equal to `skein coverage`'s, and one budget line per shell with `skein budget`'s
+   delta-v; then the sections in the order layout and drift, coverage, (ground contacts,) budget, exports, run
+   record; in index.html each figure comes right after the table it illustrates (no other table between them),
+   every table sits in its scroll box, and images and SVGs are limited to the column's width.
 """
 import filecmp
 import json
@@ -37,6 +44,7 @@ def run(*args):
     return r.stdout
 
 
+os.makedirs(work, exist_ok=True)
 a, b = os.path.join(work, "a"), os.path.join(work, "b")
 for out in (a, b):
     run("report", design, "--out", out, "--creation-date", "2027-01-01T00:00:00Z")
@@ -65,28 +73,30 @@ else:
             fail(f"{rel} differs between two identical runs")
 print(f"report: {len(fa)} files, reproducible")
 
-# 2. GeoJSON
-with open(os.path.join(a, "exports", "coverage_cells.geojson")) as f:
-    gj = json.load(f)
-if gj.get("type") != "FeatureCollection":
-    fail("GeoJSON is not a FeatureCollection")
-weight = 0.0
-for k, feat in enumerate(gj["features"]):
-    ring = feat["geometry"]["coordinates"][0]
-    if feat["geometry"]["type"] != "Polygon" or len(ring) < 4 or ring[0] != ring[-1]:
-        fail(f"feature {k}: not a closed Polygon ring")
-        break
-    area2 = sum(ring[j][0] * ring[j + 1][1] - ring[j + 1][0] * ring[j][1] for j in range(len(ring) - 1))
-    if area2 <= 0:
-        fail(f"feature {k}: ring is clockwise")
-        break
-    if any(not (-180 <= p[0] <= 180 and -90 <= p[1] <= 90) for p in ring):
-        fail(f"feature {k}: position out of range or not [lon, lat]")
-        break
-    weight += feat["properties"]["area_weight"]
-if not math.isclose(weight, 1.0, rel_tol=1e-9):
-    fail(f"GeoJSON area weights sum to {weight}, expected 1")
-print(f"geojson: {len(gj['features'])} cells checked")
+# 2. GeoJSON (grids with cells; a sites grid has none)
+geojson_path = os.path.join(a, "exports", "coverage_cells.geojson")
+if os.path.exists(geojson_path):
+    with open(geojson_path) as f:
+        gj = json.load(f)
+    if gj.get("type") != "FeatureCollection":
+        fail("GeoJSON is not a FeatureCollection")
+    weight = 0.0
+    for k, feat in enumerate(gj["features"]):
+        ring = feat["geometry"]["coordinates"][0]
+        if feat["geometry"]["type"] != "Polygon" or len(ring) < 4 or ring[0] != ring[-1]:
+            fail(f"feature {k}: not a closed Polygon ring")
+            break
+        area2 = sum(ring[j][0] * ring[j + 1][1] - ring[j + 1][0] * ring[j][1] for j in range(len(ring) - 1))
+        if area2 <= 0:
+            fail(f"feature {k}: ring is clockwise")
+            break
+        if any(not (-180 <= p[0] <= 180 and -90 <= p[1] <= 90) for p in ring):
+            fail(f"feature {k}: position out of range or not [lon, lat]")
+            break
+        weight += feat["properties"]["area_weight"]
+    if not math.isclose(weight, 1.0, rel_tol=1e-9):
+        fail(f"GeoJSON area weights sum to {weight}, expected 1")
+    print(f"geojson: {len(gj['features'])} cells checked")
 
 # 3. OEM
 check = json.loads(run("check", design, "--format", "json"))
@@ -204,5 +214,94 @@ command = record.get("command (FOLDER: this folder)", "")
 if "--out FOLDER" not in command or work in command:
     fail(f"run record command {command!r} does not leave the output folder out")
 print("run record: design copy, FNV-1a hash, version and command checked")
+
+# 6. Reading order: the answer first.
+page = open(os.path.join(a, "index.html")).read()
+
+
+def md_plain(s):
+    return md_text(s).replace("**", "")
+
+
+first_section = summary.index("\n## ")
+answer_md = md_plain(summary[:first_section])
+sections_md = re.findall(r"^## (.+)$", summary, re.M)
+expected_order = ["Layout and drift", "Coverage", "Ground contacts", "Lifetime and delta-v budget", "Exports",
+                  "How this report was made"]
+if [x for x in expected_order if x in sections_md] != sections_md:
+    fail(f"summary.md sections {sections_md}, expected in the order {expected_order}")
+html_sections = re.findall(r'<section[^>]*id="([a-z]+)"', page)
+if not html_sections or html_sections[0] != "answer":
+    fail(f"index.html does not open with the answer: sections {html_sections}")
+plan_ids = ["answer", "layout", "coverage", "contacts", "budget", "exports", "record"]
+if [x for x in plan_ids if x in html_sections] != html_sections:
+    fail(f"index.html sections {html_sections}, expected in the order {plan_ids}")
+answer_html = html.unescape(re.sub(r"<[^>]+>", "", page[page.index('id="answer"'):page.index("</section>")]))
+for sh in budget["shells"]:
+    for where, text in (("summary.md", answer_md), ("index.html", answer_html)):
+        if not re.search("^- " * (where == "summary.md") + re.escape(sh["name"]) + ": \\d+ satellites in \\d+ planes",
+                         text, re.M):
+            fail(f"{where}: no design line for shell {sh['name']!r} before the first section")
+for where, text in (("summary.md", answer_md), ("index.html", answer_html)):
+    m = re.search(r"Coverage \(.*?\): ([0-9.]+) % of the time with at least one satellite", text)
+    if not m or abs(float(m.group(1)) - coverage["percent_covered"]) > 0.051:
+        fail(f"{where}: headline coverage {m and m.group(1)!r}, skein coverage gives {coverage['percent_covered']}")
+    for sh in budget["shells"]:
+        m = re.search(r"Budget of shell " + re.escape(sh["name"]) + r" .*?: ([0-9.]+) m/s per satellite", text)
+        if not m or abs(float(m.group(1)) - sh["total_dv_m_s"]) > 0.051:
+            fail(f"{where}: headline budget of {sh['name']} {m and m.group(1)!r}, skein budget gives {sh['total_dv_m_s']}")
+    req = coverage.get("requirement")
+    if req:
+        head = f"Requirement at fold {req['fold']}: " + ("met" if req["met"] else "NOT met")
+        if head not in text:
+            fail(f"{where}: verdict {head!r} not in the answer")
+        elif text.index(head) > text.index("satellites in"):
+            fail(f"{where}: the verdict does not come before the design lines")
+        for row in req["checks"]:
+            if row["met"] == "no" and row["figure"] not in text:
+                fail(f"{where}: failing check {row['figure']} not listed in the answer")
+            for site in (row["failing_sites"] or "").split("; ") if row["met"] == "no" else []:
+                if site and site not in text:
+                    fail(f"{where}: failing site {site!r} of {row['figure']} not named in the answer")
+print(f"reading order: answer first ({len(budget['shells'])} budget lines, "
+      f"{'a verdict' if coverage.get('requirement') else 'no requirement'}), sections {sections_md}")
+
+# index.html: figures right after the table they illustrate, tables in scroll boxes, images bounded.
+pairs = [("beta_eclipse", "beta_angle"), ("coverage_folds", "coverage_map"), ("coverage_bands", "coverage_by_latitude"),
+         ("in_view_distribution", "in_view_histogram"), ("budget_lines", "dv_budget"), ("lifetime_by_level", "decay_")]
+for table, figure in pairs:
+    t = page.find(f'id="table-{table}"')
+    f = page.find(f'id="figure-{figure}')
+    if t < 0 or f < 0:
+        continue  # not in this report (e.g. no map on a sites grid)
+    if not t < f or "<table" in page[page.index("</table>", t):f]:
+        fail(f"index.html: figure {figure} is not right after table {table}")
+if page.count("<table") != len(re.findall(r'<div class="table-box"[^>]*>\n<table', page)):
+    fail("index.html: a table outside its scroll box")
+if ".table-box{max-width:100%;overflow-x:auto" not in page or "img,svg{max-width:100%" not in page:
+    fail("index.html: the scroll box or the image width rule is missing from the style")
+print("index.html: figures beside their tables, tables in scroll boxes")
+
+# 7. Site grids: the pass list holds, per site, as many passes as the per-site table counts (passes per day x
+# days of span), each with rise <= time of maximum <= set and duration = set - rise, and `skein coverage --format
+# json` carries the same list.
+passes_path = os.path.join(a, "tables", "site_passes.json")
+if os.path.exists(passes_path):
+    passes = json.load(open(passes_path))["rows"]
+    sites = json.load(open(os.path.join(a, "tables", "coverage_sites.json")))["rows"]
+    days = coverage["span_s"] / 86400.0
+    for site in sites:
+        listed = [p for p in passes if p["site"] == site["name"]]
+        if len(listed) != round(site["passes_per_day"] * days):
+            fail(f"site {site['name']!r}: {len(listed)} passes listed, the per-site table counts "
+                 f"{site['passes_per_day'] * days}")
+        for p in listed:
+            if not (p["rise_s"] <= p["set_s"] and abs(p["duration_min"] * 60 - (p["set_s"] - p["rise_s"])) < 1e-6
+                    and p["max_elevation_deg"] >= coverage["min_elevation_deg"] - 1e-6):
+                fail(f"site {site['name']!r}: pass {p} is not consistent")
+                break
+    if coverage.get("site_passes") != passes:
+        fail("skein coverage --format json: site_passes differ from the report's tables/site_passes.json")
+    print(f"site passes: {len(passes)} passes over {len(sites)} sites agree with the per-site table and skein coverage")
 print(f"report checks: {0 if failures else 1} passed, {1 if failures else 0} failed")
 sys.exit(1 if failures else 0)

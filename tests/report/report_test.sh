@@ -1,10 +1,13 @@
 #!/usr/bin/env bash
 # The report folder for the small design: reproducibility, GeoJSON, OEM, summary-vs-JSON checks, then a
-# headless-browser render of index.html.
+# headless-browser measurement of index.html (browser_check.py; the demo, region and sites pages in browser_test.sh).
 set -eu
 : "${SKEIN:?}" "${SOURCE_DIR:?}"
 SKEIN=$(readlink -f "$SKEIN")
 work=$(mktemp -d); trap 'rm -rf "$work"' EXIT
 cd "$SOURCE_DIR"
-/usr/bin/python3 tests/report/check_report.py "$SKEIN" designs/small.yaml "$work"
-/usr/bin/python3 tests/report/browser_check.py "$work/a/index.html" "$work/screenshot.png"
+/usr/bin/python3 tests/report/check_report.py "$SKEIN" designs/small.yaml "$work/small"
+# A sites design with a requirement that fails: the verdict and its failing checks open both pages.
+/usr/bin/python3 tests/report/check_report.py "$SKEIN" designs/harbour-watch.yaml "$work/harbour"
+# Clipped legends expected (see browser_test.sh): the gap distribution's, and the decay curves' of the probe shell.
+/usr/bin/python3 tests/report/browser_check.py "$work/small/a/index.html" --expect-clipped figure-gap_cdf,figure-decay_probe

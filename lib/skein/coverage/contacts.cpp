@@ -17,82 +17,7 @@
 namespace skein {
 namespace {
 
-constexpr double event_resolution_s = 1e-3;  // brackets of rises and sets are closed to 1 ms
 constexpr double max_sample_step_s = 60.0;
-
-struct StationPoint {
-  Eigen::Vector3d r_km;
-  Eigen::Vector3d up;
-  double sin_mask = 0.0;
-  double radius_km = 0.0;
-};
-
-// The margin m = sin(elevation) - sin(mask) and the range |d| at one instant.
-struct Sample {
-  double margin = 0.0;
-  double range_km = 0.0;
-};
-
-Sample sample_at(const StationPoint& st, const Eigen::Vector3d& r_sat) {
-  const Eigen::Vector3d d = r_sat - st.r_km;
-  const double range = d.norm();
-  return {d.dot(st.up) / range - st.sin_mask, range};
-}
-
-// Upper bound of the Earth-fixed speed (km/s) of the J2 secular-model motion of one satellite. The model's
-// velocity (propagate.hpp) is v_kep (dM/dt)/n + (domega/dt) h x r + (dOmega/dt) z x r in inertial axes, turned
-// into the Earth-fixed frame and less w_E z x r; so |v| <= v_p |dM/dt| / n + (|domega/dt| + |dOmega/dt| + w_E) r_a,
-// with the Kepler speed at most its perigee value v_p = sqrt(mu (1 + e) / (a (1 - e))) (vis-viva, Vallado 2013
-// eq. 2-8) and r at most the apogee radius r_a = a (1 + e). A 1 % margin covers rounding.
-double speed_bound_km_s(const EarthModel& earth, const SecularOrbit& orbit) {
-  const MeanElements& el = orbit.epoch_elements;
-  const double vp = std::sqrt(earth.mu_km3_s2 * (1.0 + el.e) / (el.a_km * (1.0 - el.e)));
-  const double ra = el.a_km * (1.0 + el.e);
-  const SecularRates& r = orbit.rates;
-  const double v = vp * std::abs(r.mean_anomaly_rad_s) / r.mean_motion_rad_s +
-                   (std::abs(r.argp_rad_s) + std::abs(r.raan_rad_s) + earth.rotation_rad_s) * ra;
-  return 1.01 * v;
-}
-
-// One satellite's search over all stations.
-class PairSearch {
- public:
-  PairSearch(const EarthModel& earth, const SecularOrbit& orbit, double theta0, const StationPoint& station,
-             double v_max, double floor_km)
-      : earth_(earth), orbit_(orbit), theta0_(theta0), st_(station), v_max_(v_max), floor_km_(floor_km) {}
-
-  Sample at(double t) const {
-    const EarthFixedState ef = earth_fixed_state_at(earth_, orbit_, theta0_ + earth_.rotation_rad_s * t, t);
-    return sample_at(st_, ef.r_km);
-  }
-
-  // Appends to `events` the rises and sets strictly inside (a, b), in time order.
-  void scan(double a, const Sample& sa, double b, const Sample& sb, std::vector<double>& events) const {
-    const bool in_a = sa.margin >= 0.0, in_b = sb.margin >= 0.0;
-    const double w = b - a;
-    if (in_a == in_b) {
-      const double d_low = std::max(floor_km_, 0.5 * (sa.range_km + sb.range_km - v_max_ * w));
-      const double rate = v_max_ / d_low;
-      if (std::abs(sa.margin) + std::abs(sb.margin) > rate * w) return;  // no crossing can fit
-      if (w <= event_resolution_s) return;  // a pass or gap under 1 ms is not counted
-    } else if (w <= event_resolution_s) {
-      events.push_back(0.5 * (a + b));
-      return;
-    }
-    const double m = 0.5 * (a + b);
-    const Sample sm = at(m);
-    scan(a, sa, m, sm, events);
-    scan(m, sm, b, sb, events);
-  }
-
- private:
-  const EarthModel& earth_;
-  const SecularOrbit& orbit_;
-  double theta0_;
-  const StationPoint& st_;
-  double v_max_;
-  double floor_km_;
-};
 
 void summarise(PairContacts& p, double span_s) {
   const double days = span_s / 86400.0;
@@ -189,56 +114,26 @@ ContactResult compute_contacts(const Design& design, const ContactOptions& optio
   ContactResult res;
   res.span_s = options.span_s;
   res.sample_step_s = sample_step_for(options);
-  const long steps = sample_count(options) - 1;
   const auto sats = expand_constellation(design);
 
-  std::vector<StationPoint> stations;
+  std::vector<ViewPoint> stations;
   for (const GroundStation& g : design.ground_stations) {
-    StationPoint p;
     const double lat = g.lat_deg * rad_per_deg, lon = g.lon_deg * rad_per_deg;
-    p.r_km = geodetic_to_earth_fixed(design.earth, lat, lon, g.height_km);
-    p.up = geodetic_up(lat, lon);
-    p.sin_mask = std::sin(g.min_elevation_deg * rad_per_deg);
-    p.radius_km = p.r_km.norm();
-    stations.push_back(p);
+    stations.push_back({geodetic_to_earth_fixed(design.earth, lat, lon, g.height_km), geodetic_up(lat, lon),
+                        std::sin(g.min_elevation_deg * rad_per_deg)});
   }
   const double theta0 = greenwich_mean_sidereal_angle_rad(julian_date(design.epoch));
-  std::vector<double> times(static_cast<size_t>(steps) + 1);
-  for (long j = 0; j <= steps; ++j) times[static_cast<size_t>(j)] = std::min(res.span_s, static_cast<double>(j) * res.sample_step_s);
+  const PassSearchSpan span{res.span_s, res.sample_step_s, std::nullopt};
 
   res.satellites.resize(sats.size());
   tbb::parallel_for(size_t{0}, sats.size(), [&](size_t s) {
     const SecularOrbit orbit = make_secular_orbit(design.earth, sats[s].elements);
-    const double v_max = speed_bound_km_s(design.earth, orbit);
-    const double perigee_km = orbit.epoch_elements.a_km * (1.0 - orbit.epoch_elements.e);
-    std::vector<Eigen::Vector3d> r(times.size());
-    for (size_t j = 0; j < times.size(); ++j)
-      r[j] = earth_fixed_state_at(design.earth, orbit, theta0 + design.earth.rotation_rad_s * times[j], times[j]).r_km;
     SatelliteContacts& out = res.satellites[s];
     out.id = sats[s].id;
     std::vector<ContactInterval> all;
-    for (const StationPoint& st : stations) {
-      // The range never falls below the perigee radius less the station's radius; floored at 1 km for a satellite
-      // whose perigee passes below a high station (then the bound is loose, never wrong where it holds).
-      const double floor_km = std::max(1.0, perigee_km - st.radius_km);
-      const PairSearch search(design.earth, orbit, theta0, st, v_max, floor_km);
-      std::vector<double> events;
-      Sample prev = sample_at(st, r[0]);
-      const bool in_at_start = prev.margin >= 0.0;
-      for (size_t j = 1; j < times.size(); ++j) {
-        const Sample cur = sample_at(st, r[j]);
-        search.scan(times[j - 1], prev, times[j], cur, events);
-        prev = cur;
-      }
+    for (std::vector<ContactInterval>& intervals : find_view_intervals(design.earth, orbit, theta0, stations, span)) {
       PairContacts pair;
-      bool in = in_at_start;
-      double rise = 0.0;
-      for (double e : events) {
-        if (in) pair.intervals.push_back({rise, e});
-        else rise = e;
-        in = !in;
-      }
-      if (in) pair.intervals.push_back({rise, res.span_s});
+      pair.intervals = std::move(intervals);
       summarise(pair, res.span_s);
       all.insert(all.end(), pair.intervals.begin(), pair.intervals.end());
       out.stations.push_back(std::move(pair));

@@ -6,21 +6,13 @@
 // Model: J2 secular mean elements (earth_fixed_state_at), the station on the ellipsoid with its geodetic vertical
 // (ground_geometry.hpp). A pair is in contact while m(t) = sin(elevation) - sin(mask) >= 0.
 //
-// Search: m is sampled every sample_step_s = min(step_s, 60 s) from the epoch to the end of the span (the last
-// sample at the span's end). Each interval between two samples is examined by `scan`: when m has the same sign at
-// both ends, the interval is dropped if no crossing is possible with the rate bound
-//   |dm/dt| <= |v| / |d|,   d = r_sat - r_station, v the satellite's Earth-fixed velocity
-// (the derivative of d.up/|d| is the component of v across the line of sight over |d|), i.e. when
-// |m(a)| + |m(b)| > L (b - a) with L = v_max / d_low; otherwise it is halved and both halves examined. A sign change
-// is followed down to a bracket of 1 ms and the event placed at the bracket's middle (time within 0.5 ms). So
-// every pass or gap longer than 1 ms is found, whatever the step: a pass shorter than the step (a low, grazing
-// pass) cannot hide between two samples, since the bound makes both samples close to zero there and the interval
-// is split until the pass is caught. v_max bounds the secular-model velocity from the elements (see contacts.cpp);
-// d_low = max(perigee radius - station radius, (|d(a)| + |d(b)| - v_max (b - a)) / 2).
+// Search: the rate-bounded search of pass_search.hpp (every pass or gap longer than 1 ms is found, whatever the
+// step), sampled every sample_step_s = min(step_s, 60 s).
 // Contacts cut by the span's start or end count, with the part inside the span.
 #include <string>
 #include <vector>
 
+#include "skein/coverage/pass_search.hpp"
 #include "skein/design/design.hpp"
 
 namespace skein {
@@ -31,11 +23,6 @@ struct ContactOptions {
 };
 // The design's coverage span and step.
 ContactOptions contact_options_for(const Design& design);
-
-struct ContactInterval {
-  double rise_s = 0.0;  // from the epoch; 0 when in contact at the start
-  double set_s = 0.0;   // the span's end when in contact at the end
-};
 
 // One satellite over one station.
 struct PairContacts {

@@ -191,6 +191,21 @@ Table coverage_site_table(const CoverageResult& r) {
   return t;
 }
 
+Table site_pass_table(const CoverageResult& r, const std::vector<SitePass>& passes, const UtcEpoch& epoch) {
+  Table t;
+  t.title = "Passes over each site (rise and set at the elevation mask; cut at the span's start and end)";
+  t.columns = {{"site", "site", "", 0},          {"satellite", "satellite", "", 0},
+               {"rise_utc", "rise", "UTC", 0},   {"set_utc", "set", "UTC", 0},
+               {"rise_s", "rise", "s", 3},       {"set_s", "set", "s", 3},
+               {"duration_min", "duration", "min", 2}, {"max_elevation_deg", "max elevation", "deg", 2},
+               {"max_elevation_utc", "max at", "UTC", 0}};
+  for (const SitePass& p : passes)
+    t.add_row({r.points.at(p.site).point.name, p.satellite, format_utc_iso8601(add_seconds(epoch, p.rise_s), 0),
+               format_utc_iso8601(add_seconds(epoch, p.set_s), 0), p.rise_s, p.set_s, (p.set_s - p.rise_s) / 60.0,
+               p.max_elevation_deg, format_utc_iso8601(add_seconds(epoch, p.max_elevation_s), 0)});
+  return t;
+}
+
 Table in_view_distribution_table(const CoverageResult& r) {
   Table t;
   t.title = "Satellites in view (share of time and area)";

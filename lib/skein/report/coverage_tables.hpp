@@ -3,6 +3,8 @@
 #include <string_view>
 // Tables of coverage results, shared by `skein coverage` and the report folder.
 #include "skein/coverage/result.hpp"
+#include "skein/coverage/site_passes.hpp"
+#include "skein/time/epoch.hpp"
 #include "skein/report/table.hpp"
 
 namespace skein {
@@ -28,6 +30,9 @@ Table coverage_point_table(const CoverageResult& r);
 // and mean pass length (the in-view time summed over satellites, over the passes; passes cut by the span's
 // ends count, so the mean is a slight underestimate for short spans).
 Table coverage_site_table(const CoverageResult& r);
+// One row per pass of a site grid (find_site_passes), by site then rise: the site, the satellite, rise and set
+// (UTC and seconds from the epoch), duration and maximum elevation with its time.
+Table site_pass_table(const CoverageResult& r, const std::vector<SitePass>& passes, const UtcEpoch& epoch);
 // The time- and area-weighted distribution of the number of satellites in view.
 Table in_view_distribution_table(const CoverageResult& r);
 // Quantiles 0..100 % of the pooled, area-weighted revisit-gap distribution (a CDF).

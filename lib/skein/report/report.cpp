@@ -6,6 +6,7 @@
 #include <fmt/format.h>
 
 #include "skein/coverage/grid.hpp"
+#include "skein/coverage/site_passes.hpp"
 #include "skein/design/constellation.hpp"
 #include "skein/error.hpp"
 #include "skein/export/geojson.hpp"
@@ -38,7 +39,12 @@ constexpr double oem_header_bytes = 1000.0;
 constexpr double satellite_table_bytes = 500.0;
 constexpr double point_bytes = 1800.0;
 constexpr double contact_pair_row_bytes = 400.0;  // a satellite-station row of the contact table, CSV and JSON
-constexpr double fixed_bytes = 300000.0;  // summary, page, small tables and plots
+constexpr double fixed_bytes = 300000.0;
+// A pass of the site pass list: its row in CSV, JSON and the page (about 550 bytes measured on
+// designs/harbour-watch.yaml), and at most two passes per orbit per satellite and site, the shortest orbit
+// taken as 5300 s (about 88 min, the period just above the atmosphere).
+constexpr double site_pass_bytes = 600.0;
+constexpr double shortest_period_s = 5300.0;  // summary, page, small tables and plots
 
 ReportSizeEstimate estimate_report_size(const Design& design, const ReportOptions& options) {
   const CoverageSettings st = resolve_coverage_settings(design, options.coverage);
@@ -50,13 +56,15 @@ ReportSizeEstimate estimate_report_size(const Design& design, const ReportOption
   ReportSizeEstimate e;
   double planes = 0.0;
   for (const Shell& sh : design.shells) planes += sh.planes;
-  // summary, page, the design's copy; 17 tables and the decay tables in CSV and JSON; up to 9 plots and one per
+  // summary, page, the design's copy; 18 tables and the decay tables in CSV and JSON; up to 9 plots and one per
   // shell; GeoJSON; OEM. With ground stations, 4 contact tables in CSV and JSON.
   const double stations = static_cast<double>(design.ground_stations.size());
-  e.files = 3.0 + 2.0 * (17.0 + shells * levels) + 9.0 + shells + 1.0 + sats + (stations > 0.0 ? 8.0 : 0.0);
+  e.files = 3.0 + 2.0 * (18.0 + shells * levels) + 9.0 + shells + 1.0 + sats + (stations > 0.0 ? 8.0 : 0.0);
   e.bytes = fixed_bytes + sats * (oem_header_bytes + samples * oem_line_bytes + satellite_table_bytes) +
             points * point_bytes + std::min(planes, static_cast<double>(max_beta_eclipse_series)) * beta_eclipse_drawn_plane_bytes +
             planes * beta_eclipse_plane_row_bytes + sats * stations * contact_pair_row_bytes;
+  if (st.spec.grid == GridKind::sites)
+    e.bytes += points * sats * 2.0 * std::ceil(st.spec.span_s / shortest_period_s) * site_pass_bytes;
   return e;
 }
 
@@ -110,7 +118,10 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
       {"lifetime_by_level", lifetime_by_level_table(rep.budget)},
   };
   if (rep.coverage.requirement) tables.push_back({"coverage_requirement", coverage_requirement_table(rep.coverage)});
-  if (rep.coverage.grid == GridKind::sites) tables.push_back({"coverage_sites", coverage_site_table(rep.coverage)});
+  if (rep.coverage.grid == GridKind::sites) {
+    tables.push_back({"coverage_sites", coverage_site_table(rep.coverage)});
+    tables.push_back({"site_passes", site_pass_table(rep.coverage, find_site_passes(design, rep.coverage), design.epoch)});
+  }
   if (!design.ground_stations.empty()) {
     const ContactResult contacts = compute_contacts(design);
     tables.push_back({"station_load", station_load_table(contacts)});
@@ -157,9 +168,9 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
   std::vector<std::string> warnings = rep.budget.warnings;
 
   if (!options.record.design_text.empty()) sink("design.yaml", options.record.design_text);
-  const std::string verdict = coverage_requirement_line(rep.coverage);
-  sink("summary.md", summary_markdown(design, tables, warnings, verdict));
-  sink("index.html", html_page(design, tables, figures, warnings, verdict));
+  const ReportAnswer answer = report_answer(rep.coverage, rep.budget);
+  sink("summary.md", summary_markdown(design, tables, figures, warnings, answer));
+  sink("index.html", html_page(design, tables, figures, warnings, answer));
   for (const auto& t : tables) {
     sink("tables/" + t.file + ".csv", render_csv(t.table));
     nlohmann::ordered_json j;
