@@ -110,7 +110,7 @@ TEST_CASE("every line, totals, propellant and margin") {
   }
 }
 
-TEST_CASE("natural-decay disposal meets its rule; node control strategy") {
+TEST_CASE("natural-decay disposal meets its rule, and node control strategy") {
   const Design d = read_design_text(design_text(shell_sso, "budget:\n  disposal:\n    mode: natural-decay\n    rule_years: 5\n"
                                                            "  injection_sigma:\n    altitude_km: 2\n    inclination_deg: 0.05\n"),
                                     "t.yaml");

@@ -142,7 +142,7 @@ TEST_CASE("eccentric drag rates: quadrature against a fine independent integrati
   }
 }
 
-TEST_CASE("solar activity orders the lifetimes; the cycle lies between low and high") {
+TEST_CASE("solar activity orders the lifetimes, and the cycle lies between low and high") {
   const EarthModel& earth = wgs84;
   OrbitAtmosphere atm;
   auto life = [&](SolarLevel l, double phase) {

@@ -56,7 +56,7 @@ TEST_CASE("design: Walker delta 24/3/1 expands per Walker's definition") {
   CHECK(sats[5].elements.a_km == doctest::Approx(wgs84.radius_km + 1000.0));
 }
 
-TEST_CASE("design: Walker star spreads planes over 180 deg; explicit planes keep their slots") {
+TEST_CASE("design: Walker star spreads planes over 180 deg, and explicit planes keep their slots") {
   const Design d = read_design_text(head + R"(  - name: polar
     pattern: walker-star
     satellites: 6

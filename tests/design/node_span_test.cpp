@@ -79,7 +79,7 @@ TEST_CASE("node span: an ltan_span whose last time is earlier runs forward throu
   CHECK(std::abs(planes[2].ltan_h - 2.0) < tol);
 }
 
-TEST_CASE("node span: node_span_deg divides the span like Walker's 360 deg; phasing unchanged") {
+TEST_CASE("node span: node_span_deg divides the span like Walker's 360 deg, and phasing unchanged") {
   const Design d = read_design_text(head + R"(    pattern: walker-delta
     satellites: 6
     planes: 3

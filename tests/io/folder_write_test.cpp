@@ -53,7 +53,7 @@ std::string error_of(const std::function<void()>& f) {
 
 }  // namespace
 
-TEST_CASE("folder_write: a foreign folder is refused and untouched; empty, own and --overwrite are replaced") {
+TEST_CASE("folder_write: a foreign folder is refused and untouched, and empty, own and --overwrite are replaced") {
   const fs::path d = temp_dir();
   put(d / "mine" / "keep.txt", "keep");
   const std::string e = error_of([&] { write_folder_atomic((d / "mine").string(), {{"a.txt", "new"}}); });
@@ -83,7 +83,7 @@ TEST_CASE("folder_write: a foreign folder is refused and untouched; empty, own a
   fs::remove_all(d);
 }
 
-TEST_CASE("folder_write: a marker must say skein; a file named like it with other text does not count") {
+TEST_CASE("folder_write: a marker must say skein, and a file named like it with other text does not count") {
   const fs::path d = temp_dir();
   put(d / "x" / ".skein-output", "something else\n");
   CHECK(!is_skein_output_folder((d / "x").string()));

@@ -37,7 +37,7 @@ TEST_CASE("a <script> name stays text in Markdown and HTML") {
   CHECK(render_html(t).find("<script>") == std::string::npos);
 }
 
-TEST_CASE("a site name starting with = + - @ is neutralised in CSV; numbers are not") {
+TEST_CASE("a site name starting with = + - @ is neutralised in CSV, and numbers are not") {
   Table t;
   t.columns = {{"name", "site", "", 0}, {"lon_deg", "longitude", "deg", 1}};
   t.add_row({std::string("=HYPERLINK(\"http://x\",\"y\")"), -70.5});

@@ -32,7 +32,7 @@ TEST_CASE("sweep: CRC-32 and FNV-1a match their published check values") {
   CHECK(hex32(0xCBF43926U) == "cbf43926");
 }
 
-TEST_CASE("sweep: journal lines parse back; cut-short, damaged and foreign lines are ignored") {
+TEST_CASE("sweep: journal lines parse back, and cut-short, damaged and foreign lines are ignored") {
   const std::string header = journal_header("0123456789abcdef", 5);
   JournalReadOptions five;
   five.layouts = 5;

@@ -13,7 +13,7 @@
 
 using namespace skein;
 
-TEST_CASE("sweep: a layout at 180 km is cannot-fly and never meets; 540 km is ok") {
+TEST_CASE("sweep: a layout at 180 km is cannot-fly and never meets, and 540 km is ok") {
   // 180 km with the demo spacecraft decays in about a day (far below the 7-day limit in plausibility.hpp).
   const std::string text =
       "name: low trade\nbase: demo.yaml\nshell: imaging\ncoverage:\n  grid:\n    kind: global\n    spacing_deg: 30\n"
