@@ -75,7 +75,11 @@ double max_gap_at(const PointCoverage& p, int k) {
 
 // The key of a percent-covered map or site marker set at fold k.
 ColourKey percent_key(const CoverageResult& r, int k, const std::optional<Threshold>& t) {
-  ColourKey key{fmt::format("time covered by at least {} satellite{} (%)", k, k > 1 ? "s" : ""), 0.0, 100.0, true};
+  ColourKey key;
+  key.label = fmt::format("time covered by at least {} satellite{} (%)", k, k > 1 ? "s" : "");
+  key.min = 0.0;
+  key.max = 100.0;
+  key.higher_is_better = true;
   if (t) {
     key.threshold = t->value;
     key.threshold_label = fmt::format("required: at least {:g} % ({})", t->value, to_string(t->figure));
@@ -115,8 +119,11 @@ std::string max_gap_map_svg(const Design& d, const CoverageResult& r, const MapC
   f.cells = cells_of(r, [k](const PointCoverage& p) { return max_gap_at(p, k); });
   double hi = 0;
   for (const auto& c : f.cells) hi = std::max(hi, c.value);
-  ColourKey key{k > 1 ? fmt::format("longest gap with fewer than {} in view (s)", k) : std::string("longest gap (s)"), 0.0,
-                hi > 0 ? hi : 1.0, false};
+  ColourKey key;
+  key.label = k > 1 ? fmt::format("longest gap with fewer than {} in view (s)", k) : std::string("longest gap (s)");
+  key.min = 0.0;
+  key.max = hi > 0 ? hi : 1.0;
+  key.higher_is_better = false;
   if (t) {
     key.threshold = t->value;
     key.threshold_label = fmt::format("required: at most {:g} s", t->value);

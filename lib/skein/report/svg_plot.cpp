@@ -263,12 +263,35 @@ std::string scatter_svg(const ScatterPlot& p) {
   // Point labels stand right of their marker, or left of it when the plot's right edge is too near.
   const Scale sx{xlo, xhi, b.left, b.x1()}, sy{ylo, yhi, b.y1(), b.top};
   std::string s = header(a, b) + frame(a, b, sx, sy);
+  // Labels placed greedily, each in the first of a list of spots round its point (right or left, then further
+  // up or down) whose box meets no box placed before it (markers included); a label with no free spot is left
+  // out rather than drawn over another.
+  struct Rect {
+    double x0, y0, x1, y1;
+    bool meets(const Rect& o) const { return x0 < o.x1 && o.x0 < x1 && y0 < o.y1 && o.y0 < y1; }
+  };
+  std::vector<Rect> taken;
+  for (const auto& q : p.points) taken.push_back({sx(q.x) - 5, sy(q.y) - 5, sx(q.x) + 5, sy(q.y) + 5});
+  std::string placed;
+  auto place = [&](double px, double py, const std::string& label, double size) {
+    const double w = text_width_px(label, size), asc = text_ascent_em * size, desc = text_descent_em * size;
+    for (double dy : {-6.0, 14.0, -20.0, 28.0, -34.0, 42.0, -48.0})
+      for (bool right_side : {true, false}) {
+        const double tx = right_side ? px + 8 : px - 8 - w, ty = py + dy;
+        const Rect r{tx, ty - asc, tx + w, ty + desc};
+        if (r.x0 < b.left || r.x1 > b.x1() || r.y0 < b.top || r.y1 > b.y1()) continue;
+        if (std::any_of(taken.begin(), taken.end(), [&](const Rect& o) { return r.meets(o); })) continue;
+        taken.push_back(r);
+        placed += fmt::format("<text x=\"{:.1f}\" y=\"{:.1f}\" font-size=\"{:g}\" stroke=\"#ffffff\" stroke-width=\"3\" "
+                              "paint-order=\"stroke\">{}</text>\n", tx, ty, size, esc(label));
+        return;
+      }
+  };
   for (const auto& r : p.references) {
     const double py = sy(r.y);
     s += fmt::format("<line x1=\"{:.1f}\" y1=\"{:.1f}\" x2=\"{:.1f}\" y2=\"{:.1f}\" stroke=\"#000\" stroke-width=\"1.5\" "
                      "stroke-dasharray=\"7 4\"/>\n", b.left, py, b.x1(), py);
-    s += fmt::format("<text x=\"{:.1f}\" y=\"{:.1f}\" text-anchor=\"end\" font-size=\"11\">{}</text>\n", b.x1() - 4,
-                     py > b.top + 16 ? py - 5 : py + 14, esc(r.label));
+    place(b.left - 4, py + 2, r.label, 11);  // at the left end, above or below the line
   }
   for (const auto& l : p.lines) {
     std::string d;
@@ -277,14 +300,12 @@ std::string scatter_svg(const ScatterPlot& p) {
                      l.dashed ? " stroke-dasharray=\"4 3\"" : "");
   }
   for (const auto& q : p.points) s += marker(q.shape, sx(q.x), sy(q.y), q.fill);
-  for (const auto& q : p.points) {
-    if (q.label.empty()) continue;
-    const double w = text_width_px(q.label, 11), px = sx(q.x), py = sy(q.y);
-    const bool right_side = px + 8 + w <= b.x1();
-    s += fmt::format("<text x=\"{:.1f}\" y=\"{:.1f}\"{} font-size=\"11\" stroke=\"#ffffff\" stroke-width=\"3\" "
-                     "paint-order=\"stroke\">{}</text>\n", right_side ? px + 8 : std::max(b.left + w, px - 8),
-                     std::clamp(py - 6, b.top + 11, b.y1() - 4), right_side ? "" : " text-anchor=\"end\"", esc(q.label));
-  }
+  std::vector<size_t> order(p.points.size());
+  for (size_t k = 0; k < order.size(); ++k) order[k] = k;
+  std::stable_sort(order.begin(), order.end(), [&](size_t i, size_t j) { return p.points[i].label_rank < p.points[j].label_rank; });
+  for (size_t k : order)
+    if (!p.points[k].label.empty()) place(sx(p.points[k].x), sy(p.points[k].y), p.points[k].label, 11);
+  s += placed;
   // Legend.
   const double x = b.x1() + 14;
   double y = b.top + 10;

@@ -53,6 +53,7 @@ struct ScatterPoint {
   MarkerShape shape = MarkerShape::circle;
   std::string fill;   // "#rrggbb"
   std::string label;  // "" for none
+  size_t label_rank = 0;  // labels are placed lowest rank first (a crowded label may be left out)
 };
 struct ScatterLegendEntry {
   std::string label;

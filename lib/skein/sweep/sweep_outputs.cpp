@@ -136,19 +136,20 @@ std::string fronts_figure(const Sweep& sweep, const LayoutSet& set, const std::v
   }
   auto cost2_colour = [&](double c) { return to_hex(sequential_colour(c2hi > c2lo ? 1.0 - (c - c2lo) / (c2hi - c2lo) : 1.0)); };
   std::vector<std::string> label(sums.size());
+  std::vector<size_t> rank(sums.size(), 0);
   size_t labelled = 0;
   for (const auto* members : {&best, &trade})
     for (size_t i : *members)
       if (label[i].empty() && labelled < max_front_labels) {
         label[i] = layout_label(set.layouts[sums[i].layout]);
-        ++labelled;
+        rank[i] = labelled++;
       }
   // Failing layouts first, so that meeting ones are drawn on top.
   for (bool meets : {false, true})
     for (size_t i : evaluated) {
       if (sums[i].meets != meets) continue;
       p.points.push_back({sums[i].costs[0], sums[i].figure, meets ? MarkerShape::circle : MarkerShape::cross,
-                          meets ? (second ? cost2_colour(sums[i].costs[1]) : meet_colour) : fail_colour, label[i]});
+                          meets ? (second ? cost2_colour(sums[i].costs[1]) : meet_colour) : fail_colour, label[i], rank[i]});
     }
   p.legend.push_back({"meets requirement", MarkerShape::circle, second ? cost2_colour(c2lo) : meet_colour});
   p.legend.push_back({"fails requirement", MarkerShape::cross, fail_colour});
