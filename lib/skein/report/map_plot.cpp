@@ -171,9 +171,11 @@ MapView zoomed_view(const std::vector<LonLat>& points, double margin_share, doub
 
 Rgb key_colour(const ColourKey& k, double value) {
   if (k.threshold) {
-    // Distance from the threshold as a share of the larger of the two sides, signed so that meeting is positive.
-    const double side = std::max({std::abs(k.max - *k.threshold), std::abs(*k.threshold - k.min), 1e-12});
-    const double s = (value - *k.threshold) / side;
+    // Distance from the threshold as a share of its own side of the key's range (each arm spans its side), signed
+    // so that meeting is positive: values bunched on one side of the threshold still use the whole arm.
+    const double t = *k.threshold;
+    const double side = value >= t ? std::max(k.max - t, 1e-12) : std::max(t - k.min, 1e-12);
+    const double s = (value - t) / side;
     return diverging_colour(k.higher_is_better ? s : -s);
   }
   const double span = k.max > k.min ? k.max - k.min : 1.0;

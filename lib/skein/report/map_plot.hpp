@@ -28,7 +28,8 @@ MapView world_view();
 MapView zoomed_view(const std::vector<LonLat>& points, double margin_share = 0.15, double min_margin_deg = 2.0);
 
 // How values map to colours (colour_ramp.hpp): a sequential ramp over [min, max] with the better end dark blue,
-// or, with a threshold, a diverging ramp pale at the threshold, blue on its meeting side.
+// or, with a threshold, a diverging ramp pale at the threshold, blue on its meeting side, each arm spanning its
+// side of [min, max] (so the two arms may have different scales; the bar under the map shows them).
 struct ColourKey {
   std::string label;        // with unit, e.g. "time covered, fold 1 (%)"
   double min = 0.0, max = 1.0;

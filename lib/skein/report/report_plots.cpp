@@ -83,8 +83,17 @@ ColourKey percent_key(const CoverageResult& r, int k, const std::optional<Thresh
   if (t) {
     key.threshold = t->value;
     key.threshold_label = fmt::format("required: at least {:g} % ({})", t->value, to_string(t->figure));
+    // Around a threshold the key spans the values shown and the threshold, a little wider (a margin of 5 % of
+    // the span, at least 1 percentage point), so that neither arm of the ramp is spent on empty range.
+    double lo = t->value, hi = t->value;
+    for (const auto& p : r.points) {
+      lo = std::min(lo, percent_at(p, k));
+      hi = std::max(hi, percent_at(p, k));
+    }
+    const double m = std::max(1.0, 0.05 * (hi - lo));
+    key.min = std::max(0.0, lo - m);
+    key.max = std::min(100.0, hi + m);
   }
-  (void)r;
   return key;
 }
 
@@ -125,9 +134,14 @@ std::string max_gap_map_svg(const Design& d, const CoverageResult& r, const MapC
   key.max = hi > 0 ? hi : 1.0;
   key.higher_is_better = false;
   if (t) {
+    // As for the percent key: the values shown and the threshold, with a margin.
+    double lo = t->value, top = std::max(hi, t->value);
+    for (const auto& c : f.cells) lo = std::min(lo, c.value);
+    const double margin = std::max(1.0, 0.05 * (top - lo));
     key.threshold = t->value;
     key.threshold_label = fmt::format("required: at most {:g} s", t->value);
-    key.max = std::max(key.max, t->value * 1.05);
+    key.min = std::max(0.0, lo - margin);
+    key.max = top + margin;
   }
   f.key = key;
   f.outlines = region_outline(d, r);
