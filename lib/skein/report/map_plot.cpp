@@ -103,19 +103,20 @@ std::vector<double> shifts_for(const Frame& f, const Ring& ring) {
   return out;
 }
 
-std::string land_layer(const Frame& f, const LandOutlines& land, bool filled) {
+// The land drawn once as a path in <defs> (id unique within the page) and used up to three times: the fill
+// (maps without cells), then the outline as a white halo under a dark line, readable over pale and dark cells.
+std::string land_layer(const Frame& f, const LandOutlines& land, bool filled, const std::string& id) {
   std::string d;
   for (const LandPolygon& p : land.polygons)
     for (const Ring& r : p.rings) {
       const Ring u = fillable_ring(r);
       for (double s : shifts_for(f, u)) ring_path(d, f, u, s);
     }
-  std::string s;
-  if (filled) s += fmt::format("<path d=\"{}\" fill=\"#e4e1d8\" fill-rule=\"evenodd\" stroke=\"none\"/>\n", d);
-  // Outlines: a white halo under a dark line, readable over pale and dark cells alike.
-  s += fmt::format("<path d=\"{}\" fill=\"none\" stroke=\"#ffffff\" stroke-width=\"1.8\" stroke-opacity=\"0.8\" "
-                   "stroke-linejoin=\"round\"/>\n", d);
-  s += fmt::format("<path d=\"{}\" fill=\"none\" stroke=\"#333333\" stroke-width=\"0.7\" stroke-linejoin=\"round\"/>\n", d);
+  std::string s = fmt::format("<defs><path id=\"{}\" d=\"{}\"/></defs>\n", id, d);
+  if (filled) s += fmt::format("<use href=\"#{}\" fill=\"#e4e1d8\" fill-rule=\"evenodd\" stroke=\"none\"/>\n", id);
+  s += fmt::format("<use href=\"#{}\" fill=\"none\" stroke=\"#ffffff\" stroke-width=\"1.8\" stroke-opacity=\"0.8\" "
+                   "stroke-linejoin=\"round\"/>\n", id);
+  s += fmt::format("<use href=\"#{}\" fill=\"none\" stroke=\"#333333\" stroke-width=\"0.7\" stroke-linejoin=\"round\"/>\n", id);
   return s;
 }
 
@@ -290,7 +291,7 @@ std::string map_figure_svg(const MapFigure& m) {
   s += fmt::format("<g clip-path=\"url(#{})\">\n", clip);
   s += fmt::format("<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{:.1f}\" height=\"{:.1f}\" fill=\"{}\"/>\n", x0, y0, pw, ph,
                    m.cells.empty() ? "#f4f8fb" : "#ffffff");
-  if (m.land && m.cells.empty()) s += land_layer(f, *m.land, true);
+  if (m.land && m.cells.empty()) s += land_layer(f, *m.land, true, "skein-land-" + m.id);
   if (m.key)
     for (const MapCell& c : m.cells) {
       const double mid = f.shift_into(0.5 * (c.lon_min_deg + c.lon_max_deg));
@@ -300,7 +301,7 @@ std::string map_figure_svg(const MapFigure& m) {
       s += fmt::format("<rect x=\"{:.2f}\" y=\"{:.2f}\" width=\"{:.2f}\" height=\"{:.2f}\" fill=\"{}\"/>\n", cx0, cy0,
                        cx1 - cx0 + 0.25, cy1 - cy0 + 0.25, to_hex(key_colour(*m.key, c.value)));
     }
-  if (m.land && !m.cells.empty()) s += land_layer(f, *m.land, false);
+  if (m.land && !m.cells.empty()) s += land_layer(f, *m.land, false, "skein-land-" + m.id);
   for (const Ring& r : m.outlines) {
     std::string d;
     const Ring u = unwrap_longitudes(r);

@@ -37,8 +37,8 @@ constexpr double satellite_table_bytes = 500.0;
 constexpr double point_bytes = 1800.0;
 constexpr double contact_pair_row_bytes = 400.0;  // a satellite-station row of the contact table, CSV and JSON
 constexpr double fixed_bytes = 300000.0;  // summary, page, small tables and plots
-// A world map's land outlines (land-110m.json, points closer than 0.4 px dropped), drawn as three paths (fill or
-// none, halo, line): about 95 kB measured on designs/demo.yaml; each map is in its SVG and again in index.html.
+// A world map's land outlines (land-110m.json, points closer than 0.4 px dropped), one path used up to three
+// times: about 95 kB measured on designs/demo.yaml; each map is in its SVG and again in index.html.
 constexpr double land_map_bytes = 2.0 * 95000.0;
 
 ReportSizeEstimate estimate_report_size(const Design& design, const ReportOptions& options) {
