@@ -149,7 +149,7 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
   figures.push_back({"eclipse_minutes", "Eclipse minutes per orbit of each plane over the year (cylindrical shadow)",
                      eclipse_minutes_svg(beta_eclipse)});
   figures.push_back({"ground_tracks", "One orbit of one satellite per plane, and every satellite's footprint at the epoch",
-                     ground_track_svg(design, rep.coverage, maps)});
+                     ground_track_svg(design, rep.coverage.min_elevation_deg, rep.coverage.nadir_half_angle_deg, maps)});
 
   std::vector<std::string> warnings = rep.budget.warnings;
 

@@ -229,7 +229,8 @@ std::string decay_curves_svg(const ShellBudget& s, double earth_radius_km) {
   return line_plot_svg(a, series);
 }
 
-std::string ground_track_svg(const Design& d, const CoverageResult& r, const MapContext& m) {
+std::string ground_track_svg(const Design& d, double min_elevation_deg, std::optional<double> nadir_half_angle_deg,
+                             const MapContext& m) {
   const auto sats = expand_constellation(d);
   const JulianDate jd = julian_date(d.epoch);
   // The planes: (shell, plane) of the first satellite met in each, then evenly chosen when there are too many.
@@ -259,12 +260,12 @@ std::string ground_track_svg(const Design& d, const CoverageResult& r, const Map
   // sphere of the equatorial radius; the geodetic sub-satellite point is used as the centre, which moves the
   // circle by less than 0.2 deg, well under a pixel of a 2 px per degree map), in the colour of its plane
   // when that plane is drawn, grey otherwise.
-  const double eps = r.min_elevation_deg * rad_per_deg;
+  const double eps = min_elevation_deg * rad_per_deg;
   for (const auto& sat : sats) {
     const SecularOrbit orbit = make_secular_orbit(d.earth, sat.elements);
     const double radius_km = state_at(d.earth, orbit, 0.0).r_km.norm();
-    const double lambda = r.nadir_half_angle_deg
-                              ? footprint_central_angle_rad(d.earth.radius_km, radius_km, eps, *r.nadir_half_angle_deg * rad_per_deg)
+    const double lambda = nadir_half_angle_deg
+                              ? footprint_central_angle_rad(d.earth.radius_km, radius_km, eps, *nadir_half_angle_deg * rad_per_deg)
                               : footprint_central_angle_rad(d.earth.radius_km, radius_km, eps);
     const auto sub = ground_track(d.earth, orbit, jd, 0.0, 1.0).front();
     const double la = sub.lat_deg * rad_per_deg, lo = sub.lon_deg * rad_per_deg;
@@ -284,8 +285,8 @@ std::string ground_track_svg(const Design& d, const CoverageResult& r, const Map
     }
     f.traces.push_back(std::move(t));
   }
-  f.thin_trace_legend = fmt::format("footprint at the epoch ({:g} deg mask{})", r.min_elevation_deg,
-                                    r.nadir_half_angle_deg ? fmt::format(", {:g} deg cone", *r.nadir_half_angle_deg) : "");
+  f.thin_trace_legend = fmt::format("footprint at the epoch ({:g} deg mask{})", min_elevation_deg,
+                                    nadir_half_angle_deg ? fmt::format(", {:g} deg cone", *nadir_half_angle_deg) : "");
   return map_figure_svg(f);
 }
 

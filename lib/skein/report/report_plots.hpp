@@ -1,5 +1,6 @@
 #pragma once
 // The report's figures, each built from result structs into SVG text.
+#include <optional>
 #include <string>
 
 #include "skein/budget/budget.hpp"
@@ -40,7 +41,8 @@ std::string decay_curves_svg(const ShellBudget& shell, double earth_radius_km);
 // max_track_planes planes, evenly chosen) and, at the epoch, the footprint circle of every satellite (central
 // angle from the coverage's elevation mask and payload cone, coverage/ground_geometry.hpp).
 inline constexpr size_t max_track_planes = 12;
-std::string ground_track_svg(const Design& d, const CoverageResult& r, const MapContext& m);
+std::string ground_track_svg(const Design& d, double min_elevation_deg, std::optional<double> nadir_half_angle_deg,
+                             const MapContext& m);
 // Beta angle (deg) and eclipse minutes per orbit against days from the epoch, one series per plane (at most
 // max_beta_eclipse_series planes, evenly chosen, when there are more: the legend's room).
 inline constexpr size_t max_beta_eclipse_series = 8;
