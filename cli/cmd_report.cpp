@@ -36,11 +36,28 @@ std::string creation_date(const std::string& flag) {
   return format_utc_iso8601(add_seconds(*parse_utc_iso8601("1970-01-01T00:00:00Z"), unix_s), 3).substr(0, 23);
 }
 
+// The land outlines of the maps: --land-outlines PATH (must exist), else the SKEIN_LAND_OUTLINES environment
+// variable, else the file scripts/setup.sh installs (SKEIN_LAND_OUTLINES_DEFAULT, set by CMake). A missing file
+// other than the flag's leaves the maps without outlines and the report says so.
+void set_land_outlines(ReportOptions& options, const std::string& flag) {
+  if (!flag.empty() && !std::filesystem::exists(flag))
+    throw InputError(fmt::format("--land-outlines {}: no such file; expected a TopoJSON file of land polygons such as "
+                                 "land-110m.json of the world-atlas package", flag));
+  std::string path = flag;
+  if (path.empty()) {
+    const char* env = std::getenv("SKEIN_LAND_OUTLINES");
+    path = env ? env : SKEIN_LAND_OUTLINES_DEFAULT;
+  }
+  LandOutlineLoad load = load_land_outlines(path);
+  options.land = std::move(load.outlines);
+  options.land_note = std::move(load.note);
+}
+
 }  // namespace
 
 void add_report_command(CLI::App& app) {
   struct Options {
-    std::string design, out, solar, created;
+    std::string design, out, solar, created, land;
     int threads = 0;
     bool force = false, overwrite = false;
     double ephemeris_step_s = 60.0;
@@ -61,6 +78,10 @@ void add_report_command(CLI::App& app) {
                   "time stamp in the report, so fixing it makes the folder byte-identical across runs");
   cmd->add_option("--ephemeris-step", opt->ephemeris_step_s, "OEM sample step in seconds (default 60)")
       ->check(CLI::Range(1.0, 86400.0));
+  cmd->add_option("--land-outlines", opt->land,
+                  "Land outlines for the maps: a TopoJSON file such as land-110m.json of the world-atlas package "
+                  "(default: $SKEIN_LAND_OUTLINES, else the copy scripts/setup.sh installs; without one the maps say "
+                  "that the outlines are missing)");
   add_threads_option(*cmd, opt->threads, "Worker threads (default: all cores); results do not depend on it");
   cmd->add_flag("--force", opt->force,
                 "Run the coverage even when its work estimate exceeds the limits, and write a report above the size "
@@ -73,6 +94,7 @@ void add_report_command(CLI::App& app) {
     options.budget.solar = solar_of(opt->solar);
     options.creation_date = creation_date(opt->created);
     options.ephemeris_step_s = opt->ephemeris_step_s;
+    set_land_outlines(options, opt->land);
     // The command as typed, with the output folder written FOLDER: it does not change a figure, and so two runs of
     // the same command into different folders stay byte-identical.
     std::vector<std::string> args = command_args();

@@ -385,7 +385,7 @@ void run(const skein::Design& design) {
       {"drift", skein::drift_table(drift)},
       {"differential_drift", skein::differential_drift_table(drift)},
   };
-  std::vector<skein::Figure> figures = {{"ground_tracks", "Ground tracks", skein::ground_track_svg(design)}};
+  std::vector<skein::Figure> figures = {{"ground_tracks", "Ground tracks", skein::ground_track_svg(design, design.coverage.min_elevation_deg, design.coverage.nadir_half_angle_deg, {})}};
   std::vector<std::string> warnings;
   if (budget) {
     // skein budget --format json

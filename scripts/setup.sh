@@ -13,6 +13,22 @@ packages+=(${SKEIN_EXTRA_PACKAGES:-})
 . scripts/install_missing.sh
 install_missing "${packages[@]}"
 
+# Land outlines for the report's maps: Natural Earth's public-domain 1:110m land polygons as TopoJSON, from the
+# world-atlas package of the npm registry (pinned version; npm checks the package's integrity hash), installed
+# into third_party/world-atlas (ignored by git), the default place `skein report` looks (cli/CMakeLists.txt).
+# Skipped when already there; without npm the report still works and its maps say that the outlines are missing.
+land_file=third_party/world-atlas/node_modules/world-atlas/land-110m.json
+if [ ! -s "$land_file" ]; then
+  if command -v npm >/dev/null 2>&1; then
+    mkdir -p third_party/world-atlas
+    npm install --prefix third_party/world-atlas --no-save --no-package-lock --no-audit --no-fund \
+        world-atlas@2.0.2 >/dev/null \
+      || echo "setup: npm could not install world-atlas; report maps will have no land outlines" >&2
+  else
+    echo "setup: npm not found; report maps will have no land outlines (see README, Maps)" >&2
+  fi
+fi
+
 build_dir="${SKEIN_BUILD_DIR:-build}"
 cmake -S . -B "$build_dir" -DCMAKE_BUILD_TYPE=RelWithDebInfo ${SKEIN_CMAKE_ARGS:-} >/dev/null
 cmake --build "$build_dir" -j"$(nproc)"

@@ -37,6 +37,28 @@ grep -q "best front (meets requirement)" "$tmp/summary.txt" || fail "the summary
 grep -q "trade front (all layouts)" "$tmp/summary.txt" || fail "the summary does not name the trade front"
 grep -q ">best front</text>" "$tmp/out/fronts.svg" || fail "the plot has no best-front series"
 grep -q ">trade front</text>" "$tmp/out/fronts.svg" || fail "the plot has no trade-front series"
+# The front figure against the run's own files: one circle per meeting layout and one cross per failing one
+# (shape tells them apart, not colour alone), the requirement's threshold drawn and labelled, the cheapest
+# layout labelled with its T/P/F and altitude, and whole-number ticks on the satellite-count axis.
+"$py" - "$tmp/out/results.jsonl" "$tmp/out/fronts.svg" "$tmp/out/best_front.csv" <<'PY' || fail "the front figure"
+import csv, json, re, sys
+rows = [json.loads(l) for l in open(sys.argv[1])]
+svg = open(sys.argv[2]).read()
+meets = sum(1 for r in rows if r.get("meets_requirement") == "yes")
+fails = sum(1 for r in rows if r.get("meets_requirement") == "no")
+circles = len(re.findall(r"<circle ", svg)) - 1  # one more in the legend
+crosses = len(re.findall(r'<path d="M[-0-9.]+ [-0-9.]+l[-0-9.]+ [-0-9.]+M', svg)) - 1
+assert (circles, crosses) == (meets, fails), (circles, crosses, meets, fails)
+assert ">required: at least 55</text>" in svg, "no threshold label (min_percent_covered: 55)"
+assert 'stroke-dasharray="7 4"' in svg, "no threshold line"
+first = next(csv.DictReader(open(sys.argv[3])))
+label = "%s %g km" % (first["walker"], float(first["altitude_km"]))
+assert ">%s</text>" % label in svg, "the cheapest layout is not labelled " + label
+ticks = re.findall(r'text-anchor="middle">([^<]*)</text>', svg)
+numeric = [t for t in ticks if re.fullmatch(r"-?[0-9.]+", t)]
+assert numeric and all("." not in t for t in numeric), numeric
+print("front figure: %d circles, %d crosses, label %r, x ticks %s" % (circles, crosses, label, numeric))
+PY
 # No passing layout: no answer is named, the best front is empty, the trade front still holds the layout.
 cat >"$tmp/none.yaml" <<YAML
 name: nothing passes

@@ -39,12 +39,15 @@ constexpr double oem_header_bytes = 1000.0;
 constexpr double satellite_table_bytes = 500.0;
 constexpr double point_bytes = 1800.0;
 constexpr double contact_pair_row_bytes = 400.0;  // a satellite-station row of the contact table, CSV and JSON
-constexpr double fixed_bytes = 300000.0;
+constexpr double fixed_bytes = 300000.0;  // summary, page, small tables and plots
 // A pass of the site pass list: its row in CSV, JSON and the page (about 550 bytes measured on
 // designs/harbour-watch.yaml), and at most two passes per orbit per satellite and site, the shortest orbit
 // taken as 5300 s (about 88 min, the period just above the atmosphere).
 constexpr double site_pass_bytes = 600.0;
-constexpr double shortest_period_s = 5300.0;  // summary, page, small tables and plots
+constexpr double shortest_period_s = 5300.0;
+// A world map's land outlines (land-110m.json, points closer than 0.4 px dropped), one path used up to three
+// times: about 95 kB measured on designs/demo.yaml; each map is in its SVG and again in index.html.
+constexpr double land_map_bytes = 2.0 * 95000.0;
 
 ReportSizeEstimate estimate_report_size(const Design& design, const ReportOptions& options) {
   const CoverageSettings st = resolve_coverage_settings(design, options.coverage);
@@ -62,7 +65,8 @@ ReportSizeEstimate estimate_report_size(const Design& design, const ReportOption
   e.files = 3.0 + 2.0 * (18.0 + shells * levels) + 9.0 + shells + 1.0 + sats + (stations > 0.0 ? 8.0 : 0.0);
   e.bytes = fixed_bytes + sats * (oem_header_bytes + samples * oem_line_bytes + satellite_table_bytes) +
             points * point_bytes + std::min(planes, static_cast<double>(max_beta_eclipse_series)) * beta_eclipse_drawn_plane_bytes +
-            planes * beta_eclipse_plane_row_bytes + sats * stations * contact_pair_row_bytes;
+            planes * beta_eclipse_plane_row_bytes + sats * stations * contact_pair_row_bytes +
+            (options.land ? 3.0 * land_map_bytes : 0.0);
   if (st.spec.grid == GridKind::sites)
     e.bytes += points * sats * 2.0 * std::ceil(st.spec.span_s / shortest_period_s) * site_pass_bytes;
   return e;
@@ -142,11 +146,15 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
 
   std::vector<Figure> figures;
   const bool has_cells = !rep.coverage.points.empty() && rep.coverage.points.front().point.cell.has_value();
+  const MapContext maps{options.land ? &*options.land : nullptr, options.land_note};
   if (has_cells) {
-    figures.push_back({"coverage_map", "Percent of time covered by at least one satellite, per grid cell", coverage_map_svg(rep.coverage)});
-    figures.push_back({"max_gap_map", "Longest revisit gap per grid cell", max_gap_map_svg(rep.coverage)});
+    figures.push_back({"coverage_map", "Percent of time covered, per grid cell", coverage_map_svg(design, rep.coverage, maps)});
+    figures.push_back({"max_gap_map", "Longest revisit gap per grid cell", max_gap_map_svg(design, rep.coverage, maps)});
   }
-  if (!rep.coverage.bands.empty())
+  if (rep.coverage.grid == GridKind::sites && !rep.coverage.points.empty())
+    figures.push_back({"sites_map", "The sites and their percent of time covered", sites_map_svg(design, rep.coverage, maps)});
+  // A site list has no latitude profile to speak of (a few points): its map and table say more.
+  if (!rep.coverage.bands.empty() && rep.coverage.grid != GridKind::sites)
     figures.push_back({"coverage_by_latitude", "Percent of time covered against latitude, per fold", coverage_by_latitude_svg(rep.coverage)});
   figures.push_back({"in_view_histogram", "Distribution of the number of satellites in view", in_view_histogram_svg(rep.coverage)});
   if (!rep.coverage.gap_quantiles_s.empty())
@@ -163,7 +171,8 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
   figures.push_back({"beta_angle", "Beta angle of each plane over the year from the epoch", beta_angle_svg(beta_eclipse)});
   figures.push_back({"eclipse_minutes", "Eclipse minutes per orbit of each plane over the year (cylindrical shadow)",
                      eclipse_minutes_svg(beta_eclipse)});
-  figures.push_back({"ground_tracks", "Ground tracks of one plane over one day", ground_track_svg(design)});
+  figures.push_back({"ground_tracks", "One orbit of one satellite per plane, and every satellite's footprint at the epoch",
+                     ground_track_svg(design, rep.coverage.min_elevation_deg, rep.coverage.nadir_half_angle_deg, maps)});
 
   std::vector<std::string> warnings = rep.budget.warnings;
 

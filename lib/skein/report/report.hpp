@@ -11,6 +11,7 @@
 #include "skein/coverage/evaluate.hpp"
 #include "skein/design/design.hpp"
 #include "skein/io/folder_write.hpp"
+#include "skein/report/land_outlines.hpp"
 #include "skein/report/run_record.hpp"
 
 #include "skein/caution.hpp"
@@ -26,6 +27,9 @@ struct ReportOptions {
   double ephemeris_span_s = 86400.0;     // OEM span from the epoch (1 day)
   double ephemeris_step_s = 60.0;        // OEM sample step
   RunRecordInputs record;                // the command line and the design file's bytes, for the run record
+  // Land outlines for the maps (load_land_outlines); without them the maps are drawn bare and say why.
+  std::optional<LandOutlines> land;
+  std::string land_note = "land outlines missing: no outline file was given";
 };
 
 struct Report {

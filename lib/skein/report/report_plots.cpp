@@ -7,16 +7,18 @@
 
 #include <fmt/format.h>
 
+#include <functional>
+
+#include "skein/coverage/ground_geometry.hpp"
 #include "skein/design/constellation.hpp"
 #include "skein/orbit/ground_track.hpp"
+#include "skein/report/map_plot.hpp"
 #include "skein/report/svg_plot.hpp"
 
 namespace skein {
 namespace {
 
-constexpr double nan = std::numeric_limits<double>::quiet_NaN();
-
-std::vector<MapCell> cells_of(const CoverageResult& r, double (*value)(const PointCoverage&)) {
+std::vector<MapCell> cells_of(const CoverageResult& r, const std::function<double(const PointCoverage&)>& value) {
   std::vector<MapCell> cells;
   for (const auto& p : r.points)
     if (p.point.cell)
@@ -25,29 +27,142 @@ std::vector<MapCell> cells_of(const CoverageResult& r, double (*value)(const Poi
   return cells;
 }
 
-PlotAxes map_axes(const std::string& title, const std::vector<MapCell>& cells) {
-  PlotAxes a{title, "longitude (deg)", "latitude (deg)", -180.0, 180.0, -90.0, 90.0};
-  if (!cells.empty()) {
-    double lo = 90, hi = -90;
-    for (const auto& c : cells) { lo = std::min(lo, c.lat_min_deg); hi = std::max(hi, c.lat_max_deg); }
-    a.y_min = lo;
-    a.y_max = hi;
+// The view of a cell map: the region's polygon with a margin for region grids, the world otherwise.
+MapView cell_view(const Design& d, const CoverageResult& r) {
+  if (r.grid == GridKind::region && !d.coverage.region.empty()) {
+    std::vector<LonLat> pts;
+    for (const GeoVertex& v : d.coverage.region) pts.push_back({v.lon_deg, v.lat_deg});
+    for (const auto& p : r.points)
+      if (p.point.cell) {
+        pts.push_back({p.point.cell->lon_min_deg, p.point.cell->lat_min_deg});
+        pts.push_back({p.point.cell->lon_max_deg, p.point.cell->lat_max_deg});
+      }
+    return zoomed_view(pts);
   }
-  return a;
+  return world_view();
+}
+
+std::vector<Ring> region_outline(const Design& d, const CoverageResult& r) {
+  if (r.grid != GridKind::region || d.coverage.region.empty()) return {};
+  Ring ring;
+  for (const GeoVertex& v : d.coverage.region) ring.push_back({v.lon_deg, v.lat_deg});
+  ring.push_back(ring.front());
+  return {ring};
+}
+
+// The requirement's threshold on a figure, when the design's requirement holds one.
+std::optional<Threshold> threshold_on(const CoverageResult& r, std::initializer_list<RequirementFigure> figures) {
+  if (!r.requirement) return std::nullopt;
+  for (RequirementFigure f : figures)
+    for (const ThresholdVerdict& c : r.requirement->checks)
+      if (c.threshold.figure == f) return c.threshold;
+  return std::nullopt;
+}
+
+// The fold a map shows: the requirement's when it judges the mapped figure, else 1; held to the folds evaluated.
+int shown_fold(const CoverageResult& r, bool judged) {
+  const int k = judged && r.requirement ? r.requirement->fold : 1;
+  if (r.points.empty()) return 1;
+  return std::clamp(k, 1, static_cast<int>(r.points.front().percent_by_fold.size()));
+}
+
+double percent_at(const PointCoverage& p, int k) {
+  return p.percent_by_fold.size() >= static_cast<size_t>(k) ? p.percent_by_fold[static_cast<size_t>(k - 1)] : 0.0;
+}
+double max_gap_at(const PointCoverage& p, int k) {
+  return p.gaps_by_fold.size() >= static_cast<size_t>(k) ? p.gaps_by_fold[static_cast<size_t>(k - 1)].max_gap_s : p.max_gap_s;
+}
+
+// The key of a percent-covered map or site marker set at fold k.
+ColourKey percent_key(const CoverageResult& r, int k, const std::optional<Threshold>& t) {
+  ColourKey key;
+  key.label = fmt::format("time covered by at least {} satellite{} (%)", k, k > 1 ? "s" : "");
+  key.min = 0.0;
+  key.max = 100.0;
+  key.higher_is_better = true;
+  if (t) {
+    key.threshold = t->value;
+    key.threshold_label = fmt::format("required: at least {:g} % ({})", t->value, to_string(t->figure));
+    // Around a threshold the key spans the values shown and the threshold, a little wider (a margin of 5 % of
+    // the span, at least 1 percentage point), so that neither arm of the ramp is spent on empty range.
+    double lo = t->value, hi = t->value;
+    for (const auto& p : r.points) {
+      lo = std::min(lo, percent_at(p, k));
+      hi = std::max(hi, percent_at(p, k));
+    }
+    const double m = std::max(1.0, 0.05 * (hi - lo));
+    key.min = std::max(0.0, lo - m);
+    key.max = std::min(100.0, hi + m);
+  }
+  return key;
+}
+
+MapFigure base_map(const std::string& id, const std::string& title, const MapContext& m) {
+  MapFigure f;
+  f.id = id;
+  f.title = title;
+  f.land = m.land;
+  f.land_note = m.land_note;
+  return f;
 }
 
 }  // namespace
 
-std::string coverage_map_svg(const CoverageResult& r) {
-  const auto cells = cells_of(r, [](const PointCoverage& p) { return p.percent_by_fold.empty() ? 0.0 : p.percent_by_fold[0]; });
-  return map_svg(map_axes("Time covered by at least one satellite", cells), cells, {0.0, 100.0, "time covered (%)"});
+std::string coverage_map_svg(const Design& d, const CoverageResult& r, const MapContext& m) {
+  const auto t = threshold_on(r, {RequirementFigure::worst_point_percent, RequirementFigure::percent_covered});
+  const int k = shown_fold(r, t.has_value());
+  MapFigure f = base_map("coverage_map", k > 1 ? fmt::format("Time covered by at least {} satellites", k)
+                                               : std::string("Time covered by at least one satellite"), m);
+  f.view = cell_view(d, r);
+  f.cells = cells_of(r, [k](const PointCoverage& p) { return percent_at(p, k); });
+  f.key = percent_key(r, k, t);
+  f.outlines = region_outline(d, r);
+  return map_figure_svg(f);
 }
 
-std::string max_gap_map_svg(const CoverageResult& r) {
-  const auto cells = cells_of(r, [](const PointCoverage& p) { return p.max_gap_s / 60.0; });
+std::string max_gap_map_svg(const Design& d, const CoverageResult& r, const MapContext& m) {
+  const auto t = threshold_on(r, {RequirementFigure::max_gap_s});
+  const int k = shown_fold(r, t.has_value());
+  MapFigure f = base_map("max_gap_map", k > 1 ? fmt::format("Longest revisit gap at fold {}", k) : std::string("Longest revisit gap"), m);
+  f.view = cell_view(d, r);
+  f.cells = cells_of(r, [k](const PointCoverage& p) { return max_gap_at(p, k); });
   double hi = 0;
-  for (const auto& c : cells) hi = std::max(hi, c.value);
-  return map_svg(map_axes("Longest revisit gap", cells), cells, {0.0, hi > 0 ? hi : 1.0, "longest gap (min)"});
+  for (const auto& c : f.cells) hi = std::max(hi, c.value);
+  ColourKey key;
+  key.label = k > 1 ? fmt::format("longest gap with fewer than {} in view (s)", k) : std::string("longest gap (s)");
+  key.min = 0.0;
+  key.max = hi > 0 ? hi : 1.0;
+  key.higher_is_better = false;
+  if (t) {
+    // As for the percent key: the values shown and the threshold, with a margin.
+    double lo = t->value, top = std::max(hi, t->value);
+    for (const auto& c : f.cells) lo = std::min(lo, c.value);
+    const double margin = std::max(1.0, 0.05 * (top - lo));
+    key.threshold = t->value;
+    key.threshold_label = fmt::format("required: at most {:g} s", t->value);
+    key.min = std::max(0.0, lo - margin);
+    key.max = top + margin;
+  }
+  f.key = key;
+  f.outlines = region_outline(d, r);
+  return map_figure_svg(f);
+}
+
+std::string sites_map_svg(const Design& d, const CoverageResult& r, const MapContext& m) {
+  const auto t = threshold_on(r, {RequirementFigure::worst_point_percent, RequirementFigure::percent_covered});
+  const int k = shown_fold(r, t.has_value());
+  MapFigure f = base_map("sites_map", "Sites and their time covered", m);
+  std::vector<LonLat> pts;
+  for (const auto& p : r.points) {
+    f.sites.push_back({{p.point.lon_deg, p.point.lat_deg}, p.point.name, percent_at(p, k)});
+    pts.push_back({p.point.lon_deg, p.point.lat_deg});
+  }
+  // Sites close together get a zoomed view (margin 25 %, at least 5 deg); spread ones the world.
+  f.view = zoomed_view(pts, 0.25, 5.0);
+  if (f.view.lon_max_deg - f.view.lon_min_deg > 180.0 || f.view.lat_max_deg - f.view.lat_min_deg > 90.0) f.view = world_view();
+  f.key = percent_key(r, k, t);
+  (void)d;
+  return map_figure_svg(f);
 }
 
 std::string coverage_by_latitude_svg(const CoverageResult& r) {
@@ -114,29 +229,65 @@ std::string decay_curves_svg(const ShellBudget& s, double earth_radius_km) {
   return line_plot_svg(a, series);
 }
 
-std::string ground_track_svg(const Design& d) {
-  std::vector<Series> series;
+std::string ground_track_svg(const Design& d, double min_elevation_deg, std::optional<double> nadir_half_angle_deg,
+                             const MapContext& m) {
   const auto sats = expand_constellation(d);
   const JulianDate jd = julian_date(d.epoch);
-  for (const auto& sat : sats) {
-    if (sat.shell != 0 || sat.plane != 0) continue;
-    const auto track = ground_track(d.earth, make_secular_orbit(d.earth, sat.elements), jd, seconds_per_day, 30.0);
-    Series s{sat.id, {}, {}, SeriesStyle::line};
-    for (size_t k = 0; k < track.size(); ++k) {
-      // Break the line where it wraps across the antimeridian.
-      if (k > 0 && std::abs(track[k].lon_deg - track[k - 1].lon_deg) > 180.0) {
-        s.x.push_back(nan);
-        s.y.push_back(nan);
-      }
-      s.x.push_back(track[k].lon_deg);
-      s.y.push_back(track[k].lat_deg);
-    }
-    series.push_back(std::move(s));
-    if (series.size() == 8) break;  // legend room; a plane of more satellites repeats the same track shifted
+  // The planes: (shell, plane) of the first satellite met in each, then evenly chosen when there are too many.
+  std::vector<const Satellite*> firsts;
+  for (const auto& sat : sats)
+    if (firsts.empty() || firsts.back()->shell != sat.shell || firsts.back()->plane != sat.plane) firsts.push_back(&sat);
+  std::vector<const Satellite*> drawn = firsts;
+  if (firsts.size() > max_track_planes) {
+    drawn.clear();
+    for (size_t k = 0; k < max_track_planes; ++k) drawn.push_back(firsts[k * (firsts.size() - 1) / (max_track_planes - 1)]);
   }
-  return line_plot_svg({fmt::format("Ground tracks of plane 1 of shell {} over one day", d.shells.front().name),
-                        "longitude (deg)", "geodetic latitude (deg)", -180.0, 180.0, -90.0, 90.0},
-                       series);
+  MapFigure f = base_map("ground_tracks", drawn.size() < firsts.size()
+                                              ? fmt::format("One orbit of one satellite per plane ({} of {} planes)", drawn.size(), firsts.size())
+                                              : std::string("One orbit of one satellite per plane"), m);
+  f.view = world_view();
+  for (size_t j = 0; j < drawn.size(); ++j) {
+    const Satellite& sat = *drawn[j];
+    const double period_s = two_pi * std::sqrt(std::pow(sat.elements.a_km, 3) / d.earth.mu_km3_s2);
+    const auto track = ground_track(d.earth, make_secular_orbit(d.earth, sat.elements), jd, period_s, period_s / 240.0);
+    MapTrace t;
+    t.colour = j;
+    for (const auto& p : track) t.points.push_back({p.lon_deg, p.lat_deg});
+    f.traces.push_back(std::move(t));
+    f.trace_legend.push_back(fmt::format("{} plane {}", d.shells[static_cast<size_t>(sat.shell)].name, sat.plane + 1));
+  }
+  // Footprints at the epoch: the small circle of central angle lambda round each sub-satellite point (on a
+  // sphere of the equatorial radius; the geodetic sub-satellite point is used as the centre, which moves the
+  // circle by less than 0.2 deg, well under a pixel of a 2 px per degree map), in the colour of its plane
+  // when that plane is drawn, grey otherwise.
+  const double eps = min_elevation_deg * rad_per_deg;
+  for (const auto& sat : sats) {
+    const SecularOrbit orbit = make_secular_orbit(d.earth, sat.elements);
+    const double radius_km = state_at(d.earth, orbit, 0.0).r_km.norm();
+    const double lambda = nadir_half_angle_deg
+                              ? footprint_central_angle_rad(d.earth.radius_km, radius_km, eps, *nadir_half_angle_deg * rad_per_deg)
+                              : footprint_central_angle_rad(d.earth.radius_km, radius_km, eps);
+    const auto sub = ground_track(d.earth, orbit, jd, 0.0, 1.0).front();
+    const double la = sub.lat_deg * rad_per_deg, lo = sub.lon_deg * rad_per_deg;
+    MapTrace t;
+    t.thin = true;
+    t.colour = drawn.size();  // a colour past the planes' unless its plane is drawn
+    for (size_t j = 0; j < drawn.size(); ++j)
+      if (drawn[j]->shell == sat.shell && drawn[j]->plane == sat.plane) t.colour = j;
+    for (int s = 0; s <= 120; ++s) {
+      // Destination point at distance lambda on bearing b (spherical trigonometry, e.g. Snyder, "Map
+      // Projections: A Working Manual", USGS PP 1395, 1987, eq. 5-5 and 5-6).
+      const double b = two_pi * s / 120.0;
+      const double lat2 = std::asin(std::sin(la) * std::cos(lambda) + std::cos(la) * std::sin(lambda) * std::cos(b));
+      const double lon2 = lo + std::atan2(std::sin(b) * std::sin(lambda) * std::cos(la), std::cos(lambda) - std::sin(la) * std::sin(lat2));
+      double lon_deg = std::remainder(lon2 * deg_per_rad, 360.0);
+      t.points.push_back({lon_deg, lat2 * deg_per_rad});
+    }
+    f.traces.push_back(std::move(t));
+  }
+  f.thin_trace_legend = fmt::format("footprint at the epoch ({:g} deg mask{})", min_elevation_deg,
+                                    nadir_half_angle_deg ? fmt::format(", {:g} deg cone", *nadir_half_angle_deg) : "");
+  return map_figure_svg(f);
 }
 
 namespace {

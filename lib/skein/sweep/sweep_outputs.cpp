@@ -2,9 +2,11 @@
 
 #include <algorithm>
 #include <cassert>
+#include <cmath>
 
 #include <fmt/format.h>
 
+#include "skein/report/colour_ramp.hpp"
 #include "skein/report/svg_plot.hpp"
 #include "skein/sweep/pareto.hpp"
 #include "skein/sweep/ranking.hpp"
@@ -98,6 +100,102 @@ Table front_table(const Sweep& sweep, const LayoutSet& set, const std::vector<Ro
   return t;
 }
 
+// A front member's label: T/P/F and altitude of each varied shell ("24/4/1 550 km", shells joined by " + ").
+std::string layout_label(const Layout& l) {
+  std::string out;
+  for (const ShellChoice& c : l.shells)
+    out += fmt::format("{}{}/{}/{} {:g} km", out.empty() ? "" : " + ", c.satellites, c.planes, c.phasing, c.altitude_km);
+  return out;
+}
+
+bool is_count(CostFigure c) { return c == CostFigure::satellites || c == CostFigure::planes; }
+
+// The front figure: every evaluated layout against the first cost (x) and the requirement figure (y); meeting
+// layouts as circles, failing ones as crosses in orange-brown (shape and colour both differ); with a second
+// cost, the circles coloured by it on the sequential ramp (cheaper darker); the requirement's threshold as a
+// dashed line; both fronts drawn through their members, the members labelled (at most max_front_labels, by
+// rank: the best front first).
+constexpr size_t max_front_labels = 14;
+std::string fronts_figure(const Sweep& sweep, const LayoutSet& set, const std::vector<RowSummary>& sums,
+                          const std::vector<size_t>& evaluated, const std::vector<size_t>& best,
+                          const std::vector<size_t>& trade) {
+  ScatterPlot p;
+  p.axes.title = fmt::format("{}: best front (passing) and trade front (all)", sweep.name);
+  p.axes.x_label = cost_heading(sweep.costs.front());
+  p.axes.y_label = figure_heading(sweep);
+  p.axes.x_integer = is_count(sweep.costs.front());
+  const std::string fail_colour = to_hex(diverging_colour(-0.8)), meet_colour = to_hex(diverging_colour(0.8));
+  const bool second = sweep.costs.size() > 1;
+  double c2lo = 0, c2hi = 0;
+  if (second) {
+    c2lo = c2hi = sums[evaluated.front()].costs[1];
+    for (size_t i : evaluated) {
+      c2lo = std::min(c2lo, sums[i].costs[1]);
+      c2hi = std::max(c2hi, sums[i].costs[1]);
+    }
+  }
+  auto cost2_colour = [&](double c) { return to_hex(sequential_colour(c2hi > c2lo ? 1.0 - (c - c2lo) / (c2hi - c2lo) : 1.0)); };
+  std::vector<std::string> label(sums.size());
+  std::vector<size_t> rank(sums.size(), 0);
+  size_t labelled = 0;
+  for (const auto* members : {&best, &trade})
+    for (size_t i : *members)
+      if (label[i].empty() && labelled < max_front_labels) {
+        label[i] = layout_label(set.layouts[sums[i].layout]);
+        rank[i] = labelled++;
+      }
+  // Failing layouts first, so that meeting ones are drawn on top.
+  for (bool meets : {false, true})
+    for (size_t i : evaluated) {
+      if (sums[i].meets != meets) continue;
+      p.points.push_back({sums[i].costs[0], sums[i].figure, meets ? MarkerShape::circle : MarkerShape::cross,
+                          meets ? (second ? cost2_colour(sums[i].costs[1]) : meet_colour) : fail_colour, label[i], rank[i]});
+    }
+  p.legend.push_back({"meets requirement", MarkerShape::circle, second ? cost2_colour(c2lo) : meet_colour});
+  p.legend.push_back({"fails requirement", MarkerShape::cross, fail_colour});
+  auto line_through = [&](const std::vector<size_t>& members, const std::string& name, const std::string& colour, bool dashed) {
+    std::vector<size_t> v = members;
+    std::sort(v.begin(), v.end(), [&](size_t a, size_t b) {
+      if (sums[a].costs[0] != sums[b].costs[0]) return sums[a].costs[0] < sums[b].costs[0];
+      if (sums[a].figure != sums[b].figure) return sums[a].figure < sums[b].figure;
+      return a < b;
+    });
+    ScatterPolyline l{name, {}, {}, colour, dashed};
+    for (size_t i : v) {
+      l.x.push_back(sums[i].costs[0]);
+      l.y.push_back(sums[i].figure);
+    }
+    if (!l.x.empty()) p.lines.push_back(std::move(l));
+  };
+  // Short legend words; the title and the README give the full names.
+  line_through(trade, "trade front", "#777777", true);
+  line_through(best, "best front", "#000000", false);
+  for (const Threshold& t : sweep.requirement.thresholds)
+    if (t.figure == sweep.requirement.figure)
+      p.references.push_back({t.value, fmt::format("required: {} {:g}", higher_is_better(t.figure) ? "at least" : "at most", t.value)});
+  if (second) {
+    ScatterColourKey k{cost_heading(sweep.costs[1]), c2lo, c2hi, {}};
+    for (int j = 0; j < 24; ++j) k.colours.push_back(cost2_colour(c2lo + (c2hi - c2lo) * (j + 0.5) / 24.0));
+    p.colour_key = std::move(k);
+  }
+  // Ranges padded by 5 % (at least 0.5) so that no point sits on the frame.
+  double x0 = INFINITY, x1 = -INFINITY, y0 = INFINITY, y1 = -INFINITY;
+  for (const auto& q : p.points) {
+    x0 = std::min(x0, q.x); x1 = std::max(x1, q.x);
+    y0 = std::min(y0, q.y); y1 = std::max(y1, q.y);
+  }
+  for (const auto& r : p.references) {
+    y0 = std::min(y0, r.y);
+    y1 = std::max(y1, r.y);
+  }
+  const double px = std::max(0.05 * (x1 - x0), 0.5), py = std::max(0.05 * (y1 - y0), 0.5);
+  p.axes.x_min = x0 - px;
+  p.axes.x_max = x1 + px;
+  p.axes.y_min = y0 - py;
+  p.axes.y_max = y1 + py;
+  return scatter_svg(p);
+}
+
 }  // namespace
 
 SweepOutputs assemble_outputs(const Sweep& sweep, const LayoutSet& set, const std::map<size_t, std::string>& rows) {
@@ -167,55 +265,7 @@ SweepOutputs assemble_outputs(const Sweep& sweep, const LayoutSet& set, const st
   out.best_front_csv = render_csv(out.best_front);
   out.trade_front_csv = render_csv(out.trade_front);
 
-  // Scatter: every evaluated layout, marked by the requirement, then the trade front and the best front on top
-  // (each its own colour in the legend).
-  Series fails{"fails requirement", {}, {}, SeriesStyle::points};
-  Series meets{"meets requirement", {}, {}, SeriesStyle::points};
-  // Short legend words: the legend column is about 118 px wide at 12 px (svg_plot.cpp margins); the title and
-  // the README give the full names.
-  // The fronts are drawn as lines through their members (ordered by x, then y), over the points of every
-  // layout, so that each set stands out from the cloud and from the other.
-  Series trade_s{"trade front", {}, {}, SeriesStyle::line};
-  Series best_s{"best front", {}, {}, SeriesStyle::line};
-  auto add = [&](Series& s, size_t i) {
-    s.x.push_back(sums[i].costs[0]);
-    s.y.push_back(sums[i].figure);
-  };
-  auto by_xy = [&](std::vector<size_t> v) {
-    std::sort(v.begin(), v.end(), [&](size_t a, size_t b) {
-      if (sums[a].costs[0] != sums[b].costs[0]) return sums[a].costs[0] < sums[b].costs[0];
-      if (sums[a].figure != sums[b].figure) return sums[a].figure < sums[b].figure;
-      return a < b;
-    });
-    return v;
-  };
-  for (size_t i : evaluated) add(sums[i].meets ? meets : fails, i);
-  for (size_t i : by_xy(trade)) add(trade_s, i);
-  for (size_t i : by_xy(best)) add(best_s, i);
-  std::vector<Series> series;
-  for (Series* s : {&fails, &meets, &trade_s, &best_s})
-    if (!s->x.empty()) series.push_back(std::move(*s));
-  PlotAxes axes;
-  axes.title = fmt::format("{}: best front (passing) and trade front (all)", sweep.name);
-  axes.x_label = cost_heading(sweep.costs.front());
-  axes.y_label = figure_heading(sweep);
-  // Ranges padded by 5 % so that no point sits on the frame.
-  double x0 = 0.0, x1 = 0.0, y0 = 0.0, y1 = 0.0;
-  bool first = true;
-  for (const Series& s : series)
-    for (size_t k = 0; k < s.x.size(); ++k) {
-      x0 = first ? s.x[k] : std::min(x0, s.x[k]);
-      x1 = first ? s.x[k] : std::max(x1, s.x[k]);
-      y0 = first ? s.y[k] : std::min(y0, s.y[k]);
-      y1 = first ? s.y[k] : std::max(y1, s.y[k]);
-      first = false;
-    }
-  const double px = std::max(0.05 * (x1 - x0), 0.5), py = std::max(0.05 * (y1 - y0), 0.5);
-  axes.x_min = x0 - px;
-  axes.x_max = x1 + px;
-  axes.y_min = y0 - py;
-  axes.y_max = y1 + py;
-  out.fronts_svg = series.empty() ? std::string() : line_plot_svg(axes, series);
+  out.fronts_svg = evaluated.empty() ? std::string() : fronts_figure(sweep, set, sums, evaluated, best, trade);
   return out;
 }
 
