@@ -44,7 +44,7 @@ TEST_CASE("colour ramp: the sequential ramp darkens strictly from worse to bette
   CHECK(to_hex(Rgb{255, 0, 16}) == "#ff0010");
 }
 
-TEST_CASE("colour ramp: the diverging ramp is palest at the threshold and darkens on both sides; blue means meeting") {
+TEST_CASE("colour ramp: the diverging ramp is palest at the threshold and darkens on both sides, and blue means meeting") {
   double last_meet = 101.0, last_fail = 101.0;
   for (int k = 0; k <= 20; ++k) {
     const double lm = lightness(diverging_colour(k / 20.0)), lf = lightness(diverging_colour(-k / 20.0));

@@ -144,7 +144,7 @@ TEST_CASE("figure text: maps say when the land outlines are missing, and credit 
   CHECK(labels_outside(svg) == "");
 }
 
-TEST_CASE("figure text: scatter plots size their legend column from the text; count axes get whole-number ticks") {
+TEST_CASE("figure text: scatter plots size their legend column from the text, and count axes get whole-number ticks") {
   ScatterPlot p;
   p.axes = {"A title that is long enough to need more than the plot's width of five hundred pixels, surely",
             "satellites in the design", "time covered, fold 2 (%)"};

@@ -77,7 +77,7 @@ TEST_CASE("topojson: a missing file leaves the outlines out and says why") {
   CHECK(l.note.find("/nonexistent/land-110m.json") != std::string::npos);
 }
 
-TEST_CASE("antimeridian: a ring across 180 deg is unwrapped into one piece; a ring round a pole is closed along it") {
+TEST_CASE("antimeridian: a ring across 180 deg is unwrapped into one piece, and a ring round a pole is closed along it") {
   // A box from 170 E to 170 W written as the data carries it (longitudes in [-180, 180]).
   const Ring across = {{170, 0}, {-170, 0}, {-170, 10}, {170, 10}, {170, 0}};
   const Ring u = unwrap_longitudes(across);
@@ -97,7 +97,7 @@ TEST_CASE("antimeridian: a ring across 180 deg is unwrapped into one piece; a ri
   CHECK(std::abs(ring_signed_area_sr(polar)) == doctest::Approx(two_pi * (1 - std::sin(60 * rad_per_deg))).epsilon(1e-12));
 }
 
-TEST_CASE("zoomed map view: points across the antimeridian keep together; spread points fall back to the world") {
+TEST_CASE("zoomed map view: points across the antimeridian keep together, and spread points fall back to the world") {
   const MapView v = zoomed_view({{170, -10}, {-170, 10}}, 0.15, 2.0);
   // Span 20 deg of longitude plus 3 deg each side (15 %), not the 340 deg the raw longitudes would give.
   CHECK(v.lon_min_deg == doctest::Approx(167.0));
