@@ -109,6 +109,7 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
   };
   if (rep.coverage.requirement) tables.push_back({"coverage_requirement", coverage_requirement_table(rep.coverage)});
   if (rep.coverage.grid == GridKind::sites) tables.push_back({"coverage_sites", coverage_site_table(rep.coverage)});
+  if (rep.coverage.data_age) tables.push_back({"data_age", data_age_table(rep.coverage)});
   if (!design.ground_stations.empty()) {
     const ContactResult contacts = compute_contacts(design);
     tables.push_back({"station_load", station_load_table(contacts)});
@@ -125,14 +126,14 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
   std::vector<Figure> figures;
   const bool has_cells = !rep.coverage.points.empty() && rep.coverage.points.front().point.cell.has_value();
   if (has_cells) {
-    figures.push_back({"coverage_map", "Percent of time covered by at least one satellite, per grid cell", coverage_map_svg(rep.coverage)});
-    figures.push_back({"max_gap_map", "Longest revisit gap per grid cell", max_gap_map_svg(rep.coverage)});
+    figures.push_back({"coverage_map", lit_caption(rep.coverage, "Percent of time covered by at least one satellite, per grid cell"), coverage_map_svg(rep.coverage)});
+    figures.push_back({"max_gap_map", lit_caption(rep.coverage, "Longest revisit gap per grid cell"), max_gap_map_svg(rep.coverage)});
   }
   if (!rep.coverage.bands.empty())
-    figures.push_back({"coverage_by_latitude", "Percent of time covered against latitude, per fold", coverage_by_latitude_svg(rep.coverage)});
-  figures.push_back({"in_view_histogram", "Distribution of the number of satellites in view", in_view_histogram_svg(rep.coverage)});
+    figures.push_back({"coverage_by_latitude", lit_caption(rep.coverage, "Percent of time covered against latitude, per fold"), coverage_by_latitude_svg(rep.coverage)});
+  figures.push_back({"in_view_histogram", lit_caption(rep.coverage, "Distribution of the number of satellites in view"), in_view_histogram_svg(rep.coverage)});
   if (!rep.coverage.gap_quantiles_s.empty())
-    figures.push_back({"gap_cdf", "Cumulative distribution of revisit gaps", gap_cdf_svg(rep.coverage)});
+    figures.push_back({"gap_cdf", lit_caption(rep.coverage, "Cumulative distribution of revisit gaps"), gap_cdf_svg(rep.coverage)});
   figures.push_back({"dv_budget", "Delta-v per satellite by budget line", dv_budget_svg(rep.budget)});
   for (const auto& sh : rep.budget.shells)
     figures.push_back({"decay_" + sh.name, "Natural decay of the mean altitude of shell " + sh.name + " under each solar level",

@@ -56,6 +56,7 @@ std::string summary_markdown(const Design& d, const std::vector<NamedTable>& tab
                                {"coverage_folds", ""},
                                {"coverage_sites", ""},
                                {"coverage_bands", ""},
+                               {"data_age", ""},
                                {"station_load", "Ground contacts"},
                                {"budget_shells", "Lifetime and delta-v budget"},
                                {"budget_lines", ""},
@@ -64,7 +65,9 @@ std::string summary_markdown(const Design& d, const std::vector<NamedTable>& tab
   for (const auto& s : sections)
     for (const auto& t : tables)
       if (t.file == s[0]) {
-        if (*s[1]) m += std::string("## ") + s[1] + "\n\n";
+        // A lit-coverage run (daylight mask) says so in the section heading too.
+        const bool lit = std::string_view(s[1]) == "Coverage" && t.table.title.starts_with("Lit ");
+        if (*s[1]) m += std::string("## ") + (lit ? "Lit coverage" : s[1]) + "\n\n";
         m += render_markdown(t.table) + "\n";
       }
   m += "Figures are in `plots/`, all tables as CSV and JSON in `tables/`, exports in `exports/`; open `index.html` "
