@@ -119,7 +119,7 @@ CoverageSpec read_coverage_spec(const yaml::MapReader& root) {
       block.optional_number("nadir_half_angle_deg", 0.1, 90.0, "a payload cone half-angle from nadir in degrees");
   spec.min_sun_elevation_deg = block.optional_number(
       "min_sun_elevation_deg", -18.0, 90.0,
-      "a Sun elevation in degrees from -18 (astronomical twilight) to 90, e.g. 10 for optical imaging");
+      "a Sun elevation in degrees (-18 is astronomical twilight, 10 typical for optical imaging)");
   if (block.has("span_h"))
     spec.span_s = 3600.0 * block.number("span_h", 1e-6, 24.0 * 366.0, "a time span in hours (above zero, at most a year)");
   if (block.has("step_s")) {

@@ -367,7 +367,7 @@ SweepAxes read_axes(const MapReader& root, Sweep& sw) {
   ax.sun_given = m.has("min_sun_elevation_deg");
   if (ax.sun_given) {
     for (double v : read_number_axis(m, "min_sun_elevation_deg", -18.0, 90.0,
-                                     "a Sun elevation in degrees from -18 (astronomical twilight) to 90", false))
+                                     "a Sun elevation in degrees (-18 is astronomical twilight)", false))
       ax.min_sun_elevation_deg.emplace_back(v);
   } else {
     ax.min_sun_elevation_deg = {base.coverage.min_sun_elevation_deg};
