@@ -66,8 +66,9 @@ std::string summary_markdown(const Design& d, const std::vector<NamedTable>& tab
     for (const auto& t : tables)
       if (t.file == s[0]) {
         // A lit-coverage run (daylight mask) says so in the section heading too.
-        const bool lit = std::string_view(s[1]) == "Coverage" && t.table.title.starts_with("Lit ");
-        if (*s[1]) m += std::string("## ") + (lit ? "Lit coverage" : s[1]) + "\n\n";
+        std::string heading = s[1];
+        if (heading.starts_with("Coverage") && t.table.title.starts_with("Lit ")) heading = "Lit c" + heading.substr(1);
+        if (*s[1]) m += "## " + heading + "\n\n";
         m += render_markdown(t.table) + "\n";
       }
   m += "Figures are in `plots/`, all tables as CSV and JSON in `tables/`, exports in `exports/`; open `index.html` "
