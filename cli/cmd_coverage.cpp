@@ -104,7 +104,8 @@ void add_coverage_command(CLI::App& app) {
       print_stdout(render_text(overview) + "\n" + coverage_between_instants_note(result) + "\n\n" + requirement +
                    render_text(folds) + "\n" +
                    render_text(result.grid == GridKind::sites ? coverage_site_table(result) : bands) + "\n" +
-                   render_text(in_view_distribution_table(result)));
+                   render_text(in_view_distribution_table(result)) +
+                   (result.data_age ? "\n" + render_text(data_age_table(result)) : std::string()));
     }
     print_caution();
   });

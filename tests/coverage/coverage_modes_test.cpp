@@ -11,17 +11,17 @@ using namespace skein;
 
 namespace {
 
-Design mixed_design() {
+Design mixed_design(const std::string& extra = "") {
   // Two shells (a Walker delta and an eccentric single plane) with a payload cone and a 3-fold metric.
   return read_design_text(test::coverage_design_head() + test::walker_shell(60, 6, 1, 700.0, 55.0) +
                               "  - name: ecc\n    pattern: walker-delta\n    satellites: 4\n    planes: 1\n    phasing: 0\n"
                               "    semi_major_axis_km: 8000\n    eccentricity: 0.05\n    inclination_deg: 98\n"
                               "coverage:\n  grid:\n    spacing_deg: 5\n  min_elevation_deg: 10\n"
-                              "  nadir_half_angle_deg: 60\n  span_h: 3\n  step_s: 60\n  max_fold: 3\n",
+                              "  nadir_half_angle_deg: 60\n  span_h: 3\n  step_s: 60\n  max_fold: 3\n" + extra,
                           "modes.yaml");
 }
 
-Design awkward_sites_design() {
+Design awkward_sites_design(const std::string& extra = "") {
   // Sites where the culling windows are hardest: both poles, the antimeridian from both sides, a high site
   // and two sites on one latitude far apart; a polar and a low-inclination shell, 2-fold.
   return read_design_text(test::coverage_design_head() + test::walker_shell(24, 4, 1, 800.0, 87.0) +
@@ -34,16 +34,16 @@ Design awkward_sites_design() {
                               "      - {name: west, lat_deg: 12, lon_deg: -179.999}\n"
                               "      - {name: high, lat_deg: -16.5, lon_deg: -68.1, height_km: 4.1}\n"
                               "      - {name: far, lat_deg: 12, lon_deg: 3}\n"
-                              "  min_elevation_deg: 5\n  span_h: 12\n  step_s: 45\n  max_fold: 2\n",
+                              "  min_elevation_deg: 5\n  span_h: 12\n  step_s: 45\n  max_fold: 2\n" + extra,
                           "awkward.yaml");
 }
 
-Design region_design() {
+Design region_design(const std::string& extra = "") {
   // A region across the antimeridian (vertices east of 180 written as lon > 180), 1 deg cells.
   return read_design_text(test::coverage_design_head() + test::walker_shell(40, 5, 2, 1000.0, 60.0) +
                               "coverage:\n  grid:\n    kind: region\n    spacing_deg: 1\n"
                               "    vertices: [[170, -20], [200, -20], [200, 15], [170, 15]]\n"
-                              "  min_elevation_deg: 15\n  span_h: 6\n  step_s: 30\n  max_fold: 2\n",
+                              "  min_elevation_deg: 15\n  span_h: 6\n  step_s: 30\n  max_fold: 2\n" + extra,
                           "region.yaml");
 }
 
@@ -122,4 +122,42 @@ TEST_CASE("coverage modes: results do not depend on the TBB thread count") {
   check_same(one, two);
   CHECK(one.total.mean_in_view == two.total.mean_in_view);
   CHECK(one.total.p95_gap_s == two.total.p95_gap_s);
+}
+
+// Daylight at the target (coverage.min_sun_elevation_deg): the changes of daylight are events of each point's
+// timeline, applied by the same function in both modes, so the modes must still agree to the bit. The
+// thresholds put the terminator across the grid (mixed, region) and the south pole's Sun (about 7.7 deg high on
+// 1 March, declination -7.6 deg) just above or below the threshold (sites).
+TEST_CASE("coverage modes: with the daylight mask culled and exhaustive still agree, whatever the thread count") {
+  const std::vector<Design> designs = {mixed_design("  min_sun_elevation_deg: 10\n"),
+                                       awkward_sites_design("  min_sun_elevation_deg: 7.5\n"),
+                                       region_design("  min_sun_elevation_deg: -6\n")};
+  for (const Design& d : designs) {
+    CAPTURE(d.name);
+    CoverageOptions exhaustive;
+    exhaustive.mode = CoverageMode::exhaustive;
+    const CoverageResult a = evaluate_coverage(d), b = evaluate_coverage(d, exhaustive);
+    check_same(a, b);
+    CHECK(a.min_sun_elevation_deg.has_value());
+    CHECK(a.total.percent_by_fold[0] > 0.1);
+    CoverageResult one, two;
+    {
+      tbb::global_control c(tbb::global_control::max_allowed_parallelism, 1);
+      one = evaluate_coverage(d);
+    }
+    {
+      tbb::global_control c(tbb::global_control::max_allowed_parallelism, 2);
+      two = evaluate_coverage(d);
+    }
+    check_same(one, two);
+    check_same(one, a);
+  }
+  // Lit coverage is at most the coverage in view, point by point.
+  const CoverageResult lit = evaluate_coverage(designs[0]), plain = evaluate_coverage(mixed_design());
+  int darker = 0;
+  for (size_t i = 0; i < lit.points.size(); ++i) {
+    CHECK(lit.points[i].percent_by_fold[0] <= plain.points[i].percent_by_fold[0] + 1e-9);
+    darker += lit.points[i].percent_by_fold[0] < plain.points[i].percent_by_fold[0] - 1e-9;
+  }
+  CHECK(darker > 10);  // the mask does remove coverage somewhere
 }

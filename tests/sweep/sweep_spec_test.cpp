@@ -282,3 +282,29 @@ TEST_CASE("sweep: the design-wide axes reach the evaluators") {
   const BudgetResult b = compute_budget(layout_design(s, set.layouts[0]), BudgetOptions{});
   CHECK(m[0].lifetime_days == b.shells.at(1).lifetime_natural_days);
 }
+
+TEST_CASE("sweep: the daylight axis nests innermost and reaches the layout's coverage block") {
+  // Numbering rule (README "Layout numbering"): a new axis is appended innermost, so layout i has the
+  // daylight value i mod 3 and the T value i / 3.
+  const Sweep s = read_sweep_text(sweep_text("  satellites: [12, 24]\n  planes: [3]\n  phasing: [1]\n"
+                                             "  min_sun_elevation_deg: [-6, 10, 20]\n"),
+                                  "s.yaml", folder);
+  CHECK(s.axes.sun_given);
+  const LayoutSet set = expand_layouts(s);
+  REQUIRE(set.layouts.size() == 6);
+  const double sun[] = {-6, 10, 20};
+  for (size_t i = 0; i < 6; ++i) {
+    CAPTURE(i);
+    REQUIRE(set.layouts[i].min_sun_elevation_deg.has_value());
+    CHECK(*set.layouts[i].min_sun_elevation_deg == sun[i % 3]);
+    CHECK(set.layouts[i].shells.front().satellites == (i < 3 ? 12 : 24));
+    const Design d = layout_design(s, set.layouts[i]);
+    CHECK(*d.coverage.min_sun_elevation_deg == sun[i % 3]);
+  }
+  // Without the axis every layout keeps the base design's value (none in the demo base).
+  const Sweep plain = read_sweep_text(sweep_text("  satellites: [12]\n  planes: [3]\n  phasing: [1]\n"), "s.yaml", folder);
+  CHECK(!plain.axes.sun_given);
+  CHECK(!expand_layouts(plain).layouts.front().min_sun_elevation_deg.has_value());
+  CHECK(error_of(sweep_text("  satellites: [12]\n  min_sun_elevation_deg: [95]\n")).find("axes.min_sun_elevation_deg[0]: 95 is out of range") !=
+        std::string::npos);
+}

@@ -19,6 +19,7 @@
 #include "skein/coverage/engine/path_events.hpp"
 #include "skein/coverage/engine/row_sweep.hpp"
 #include "skein/coverage/engine/settings.hpp"
+#include "skein/coverage/data_age.hpp"
 #include "skein/coverage/footprint.hpp"
 #include "skein/coverage/ground_geometry.hpp"
 #include "skein/coverage/grid.hpp"
@@ -177,9 +178,16 @@ CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan,
   const double search_rad = radius_search_rad(K, T);
   std::vector<int> nearest(exhaustive ? 0 : P * static_cast<size_t>(K), -1);
   std::vector<long> settled_until(exhaustive ? 0 : P, -1);
+  // Daylight at the target: the Sun turned into the Earth-fixed frame by the satellites' sidereal angle.
+  DaylightMask daylight;
+  if (st.spec.min_sun_elevation_deg) {
+    daylight.epoch = julian_date(design.epoch);
+    daylight.theta0_rad = theta0;
+    daylight.rotation_rad_s = earth.rotation_rad_s;
+    daylight.sin_min = std::sin(*st.spec.min_sun_elevation_deg * rad_per_deg);
+  }
   const EvaluationContext sw{buf, smp, gm, geo, weight_q, K, T, search_rad, std::cos(search_rad), state, worst_cos, hist, fold_gap_start, nearest,
-                 settled_until,
-                 track_eps, r_apo, sat_sin_limit};
+                 settled_until, track_eps, r_apo, sat_sin_limit, st.spec.min_sun_elevation_deg ? &daylight : nullptr};
   if (!exhaustive) buf.swept_reach_rad = reach_of(r_apo_max) + track_eps + tr.rate_max_rad_s * smp.step / 2.0 + 1e-9;
 
   tbb::enumerable_thread_specific<RowScratch> scratches;
@@ -258,6 +266,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan,
   res.steps = smp.n;
   res.min_elevation_deg = st.spec.min_elevation_deg;
   res.nadir_half_angle_deg = st.spec.nadir_half_angle_deg;
+  res.min_sun_elevation_deg = st.spec.min_sun_elevation_deg;
   res.max_fold = K;
   res.satellites = T;
   res.mode = options.mode;
@@ -270,6 +279,12 @@ CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan,
   res.track_deviation_bound_deg = track_eps * deg_per_rad;
   res.path_error_bound_m = path_error_m;
   collect_metrics(res, grid, state, hist, worst_cos, worst_q, total_q, smp, st.spec.band_width_deg);
+  // Age of the data (sites grids with ground stations), over the resolved coverage settings.
+  {
+    Design resolved = design;
+    resolved.coverage = st.spec;
+    if (data_age_applies(resolved)) res.data_age = compute_data_age(resolved, grid);
+  }
   if (st.spec.requirement) res.requirement = judge_requirement(*st.spec.requirement, res);
   return res;
 }

@@ -16,11 +16,14 @@ double grid_figure(const CoverageResult& r, RequirementFigure figure, int fold) 
     case RequirementFigure::max_gap_s: return r.total.gaps_by_fold.at(k).max_gap_s;
     case RequirementFigure::p95_gap_s: return r.total.gaps_by_fold.at(k).p95_gap_s;
     case RequirementFigure::mean_response_time_s: return r.total.gaps_by_fold.at(k).mean_response_time_s;
+    case RequirementFigure::p95_data_age_s: return r.data_age ? r.data_age->total.p95_s : 0.0;
   }
   return 0.0;
 }
 
-bool has_point_figure(RequirementFigure figure) { return figure != RequirementFigure::worst_instant_percent; }
+bool has_point_figure(RequirementFigure figure) {
+  return figure != RequirementFigure::worst_instant_percent && figure != RequirementFigure::p95_data_age_s;
+}
 
 double point_figure(const PointCoverage& p, RequirementFigure figure, int fold) {
   const size_t k = static_cast<size_t>(fold - 1);
@@ -30,6 +33,7 @@ double point_figure(const PointCoverage& p, RequirementFigure figure, int fold) 
     case RequirementFigure::max_gap_s: return p.gaps_by_fold.at(k).max_gap_s;
     case RequirementFigure::p95_gap_s: return p.gaps_by_fold.at(k).p95_gap_s;
     case RequirementFigure::mean_response_time_s: return p.gaps_by_fold.at(k).mean_response_time_s;
+    case RequirementFigure::p95_data_age_s:
     case RequirementFigure::worst_instant_percent: break;
   }
   assert(false && "no per-point value");

@@ -6,6 +6,7 @@
 #include <string>
 #include <vector>
 
+#include "skein/coverage/data_age.hpp"
 #include "skein/coverage/grid.hpp"
 #include "skein/coverage/requirement_verdict.hpp"
 #include "skein/design/coverage_spec.hpp"
@@ -82,6 +83,7 @@ struct CoverageResult {
   long steps = 0;                           // sample instants, including both ends
   double min_elevation_deg = 0.0;
   std::optional<double> nadir_half_angle_deg;
+  std::optional<double> min_sun_elevation_deg;  // set: every coverage figure counts lit coverage only
   int max_fold = 1;
   int satellites = 0;
   CoverageMode mode = CoverageMode::culled;
@@ -94,6 +96,7 @@ struct CoverageResult {
   std::vector<WorstPoint> worst_point_by_fold;        // k = 1..K
   std::vector<double> in_view_fraction;     // [n]: time- and area-weighted share with n satellites in view; last bin is "n or more"
   std::vector<double> gap_quantiles_s;      // [q], q = 0..100 %: pooled area-weighted gap distribution (empty: no gaps)
+  std::optional<DataAgeResult> data_age;    // sites grids with ground stations (data_age.hpp); none otherwise
   std::optional<RequirementVerdict> requirement;  // the design's coverage.requirement, judged (none without one)
 
   // Work done, for benchmarks and the progress line.

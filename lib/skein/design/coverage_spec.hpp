@@ -43,6 +43,9 @@ struct CoverageSpec {
   std::vector<Site> sites;              // grid.sites (sites)
   double min_elevation_deg = 10.0;      // elevation mask from the local (geodetic) horizontal, 0 to 89
   std::optional<double> nadir_half_angle_deg;  // payload cone half-angle at the satellite; none by default
+  // Daylight at the target: a point counts as covered only while the Sun's centre stands at least this high
+  // above its local (geodetic) horizontal (geometric, no refraction), -18 to 90 deg; none by default.
+  std::optional<double> min_sun_elevation_deg;
   double span_s = 86400.0;              // span_h (default 24 h) from the design epoch
   double step_s = 60.0;                 // step_s, default 60 s
   std::optional<int> max_fold;          // max_fold K; default min(3, satellites)

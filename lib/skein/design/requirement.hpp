@@ -17,7 +17,9 @@ enum class RequirementFigure {
   worst_point_percent,    // percent of time covered at the least-covered point (higher is better)
   max_gap_s,              // the worst point's longest revisit gap (lower is better)
   p95_gap_s,              // 95th percentile of the pooled, area-weighted gap distribution (lower is better)
-  mean_response_time_s    // area-weighted mean wait until the next coverage (lower is better)
+  mean_response_time_s,   // area-weighted mean wait until the next coverage (lower is better)
+  p95_data_age_s          // 95th percentile of the age of the data at downlink (coverage/data_age.hpp; needs
+                          // ground stations and a sites grid; the same at every fold; lower is better)
 };
 std::string_view to_string(RequirementFigure figure);
 std::optional<RequirementFigure> requirement_figure_from_string(std::string_view text);
@@ -40,5 +42,8 @@ struct Requirement {
   bool every_site = false;
   bool within_tank = false;           // sweeps: also require the propellant to fit spacecraft.propellant_capacity_kg
 };
+
+// Whether the requirement judges or trades the age of the data (a threshold or the figure).
+bool uses_data_age(const Requirement& r);
 
 }  // namespace skein

@@ -109,14 +109,17 @@ void read_grid(const MapReader& root, CoverageSpec& spec) {
 CoverageSpec read_coverage_spec(const yaml::MapReader& root) {
   CoverageSpec spec;
   if (!root.has("coverage")) return spec;
-  const MapReader block = root.map("coverage", {"grid", "min_elevation_deg", "nadir_half_angle_deg", "span_h",
-                                                "step_s", "max_fold", "latitude_band_deg", "requirement"});
+  const MapReader block = root.map("coverage", {"grid", "min_elevation_deg", "nadir_half_angle_deg",
+                                                "min_sun_elevation_deg", "span_h", "step_s", "max_fold", "latitude_band_deg", "requirement"});
   spec.present = true;
   if (block.has("grid")) read_grid(block, spec);
   if (block.has("min_elevation_deg"))
     spec.min_elevation_deg = block.number("min_elevation_deg", 0.0, 89.0, "an elevation mask in degrees (0 to 89)");
   spec.nadir_half_angle_deg =
       block.optional_number("nadir_half_angle_deg", 0.1, 90.0, "a payload cone half-angle from nadir in degrees");
+  spec.min_sun_elevation_deg = block.optional_number(
+      "min_sun_elevation_deg", -18.0, 90.0,
+      "a Sun elevation in degrees (-18 is astronomical twilight, 10 typical for optical imaging)");
   if (block.has("span_h"))
     spec.span_s = 3600.0 * block.number("span_h", 1e-6, 24.0 * 366.0, "a time span in hours (above zero, at most a year)");
   if (block.has("step_s")) {
@@ -139,6 +142,8 @@ CoverageSpec read_coverage_spec(const yaml::MapReader& root) {
   if (block.has("requirement")) {
     RequirementReadOptions ro;
     ro.sites_grid = spec.grid == GridKind::sites;
+    ro.has_ground_stations = root.has("ground_stations");
+    ro.has_payload_cone = spec.nadir_half_angle_deg.has_value();
     spec.requirement = read_requirement_block(block, "requirement", ro);
   }
   return spec;

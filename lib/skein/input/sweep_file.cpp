@@ -282,7 +282,8 @@ SweepAxes read_axes(const MapReader& root, Sweep& sw) {
   SweepAxes ax;
   if (!root.has("axes")) root.fail(root.self(), root.path(), "missing key axes; expected the axes to vary, e.g. satellites, planes");
   std::vector<std::string_view> keys = {"shells", "min_elevation_deg", "nadir_half_angle_deg", "drag_area_m2",
-                                        "dry_mass_kg", "mission_life_years", "solar_activity"};
+                                        "dry_mass_kg", "mission_life_years", "solar_activity",
+                                        "min_sun_elevation_deg"};
   keys.insert(keys.end(), std::begin(shell_axis_keys), std::end(shell_axis_keys));
   const MapReader m = root.map("axes", keys);
   std::vector<MapReader> blocks;  // where each shell's axes were read (for the satellite cap message)
@@ -363,6 +364,14 @@ SweepAxes read_axes(const MapReader& root, Sweep& sw) {
                                                 : std::vector<double>{base.budget.mission_life_years};
   ax.solar_given = m.has("solar_activity");
   ax.solar_activity = ax.solar_given ? read_solar_axis(m) : std::vector<SolarLevel>{base.budget.solar};
+  ax.sun_given = m.has("min_sun_elevation_deg");
+  if (ax.sun_given) {
+    for (double v : read_number_axis(m, "min_sun_elevation_deg", -18.0, 90.0,
+                                     "a Sun elevation in degrees (-18 is astronomical twilight)", false))
+      ax.min_sun_elevation_deg.emplace_back(v);
+  } else {
+    ax.min_sun_elevation_deg = {base.coverage.min_sun_elevation_deg};
+  }
   return ax;
 }
 
@@ -385,6 +394,8 @@ Requirement read_requirement(const MapReader& root, const Sweep& sw) {
   ro.allow_within_tank = true;
   ro.has_tank = base.spacecraft.isp_s && base.spacecraft.propellant_capacity_kg;
   ro.sites_grid = base.coverage.grid == GridKind::sites;
+  ro.has_ground_stations = !base.ground_stations.empty();
+  ro.has_payload_cone = base.coverage.nadir_half_angle_deg.has_value();
   // Layouts whose own count is below the fold are skipped and counted; a fold above every layout's count
   // leaves nothing to evaluate, and is said here, at the fold, rather than as "no valid layout".
   ro.fold_problem = [&](int fold) -> std::optional<std::string> {

@@ -1,5 +1,7 @@
 #include "skein/report/coverage_tables.hpp"
 
+#include <cctype>
+
 #include <fmt/format.h>
 
 #include "skein/coverage/requirement_check.hpp"
@@ -18,7 +20,32 @@ void add_fold_percent_columns(Table& t, int max_fold) {
     t.columns.push_back({fmt::format("percent_covered_k{}", k + 1), fmt::format("covered k>={}", k + 1), "%", 3});
 }
 
+// With the daylight mask every coverage figure counts lit coverage only (in view while the Sun stands at least
+// the threshold high at the point): the title says so and every heading of a coverage figure gets "lit".
+// The JSON keys and CSV headers stay the same; coverage_json records the threshold beside them.
+Table lit(Table t, const CoverageResult& r) {
+  if (!r.min_sun_elevation_deg) return t;
+  t.title = fmt::format("Lit {} [lit: in view with the Sun at least {:g} deg above the point's horizon]",
+                        t.title.empty() ? std::string("coverage") : std::string(1, static_cast<char>(std::tolower(t.title[0]))) + t.title.substr(1),
+                        *r.min_sun_elevation_deg);
+  for (Column& c : t.columns) {
+    const std::string& h = c.heading;
+    for (const char* word : {"covered", "gap", "response", "in view", "pass", "worst"})
+      if (h.find(word) != std::string::npos) {
+        c.heading = "lit " + h;
+        break;
+      }
+  }
+  return t;
+}
+
 }  // namespace
+
+std::string lit_caption(const CoverageResult& r, const std::string& caption) {
+  if (!r.min_sun_elevation_deg) return caption;
+  return fmt::format("Lit coverage (Sun at least {:g} deg above the point's horizon): {}", *r.min_sun_elevation_deg,
+                     caption);
+}
 
 Table coverage_overview_table(const CoverageResult& r) {
   Table t;
@@ -36,7 +63,7 @@ Table coverage_overview_table(const CoverageResult& r) {
   const CoverageAggregate& a = r.total;
   t.add_row({static_cast<long>(r.points.size()), a.percent_by_fold.at(0), a.max_gap_s, a.mean_gap_s, a.p95_gap_s,
              a.gap_count, a.mean_response_time_s, a.mean_in_view, static_cast<long>(a.max_in_view)});
-  return t;
+  return lit(std::move(t), r);
 }
 
 Table coverage_fold_table(const CoverageResult& r) {
@@ -62,7 +89,7 @@ Table coverage_fold_table(const CoverageResult& r) {
                w.percent_covered, point_label(r.points[w.point].point), w.max_gap_s, g.max_gap_s, g.mean_gap_s, g.p95_gap_s,
                g.gap_count, g.mean_response_time_s, r.required_radius_deg[i]});
   }
-  return t;
+  return lit(std::move(t), r);
 }
 
 Table coverage_requirement_table(const CoverageResult& r) {
@@ -82,7 +109,7 @@ Table coverage_requirement_table(const CoverageResult& r) {
                std::string(c.per_site ? "every site (worst shown)" : "the grid"), std::string(c.met ? "yes" : "no"),
                sites.empty() ? Cell() : Cell(sites)});
   }
-  return t;
+  return lit(std::move(t), r);
 }
 
 std::string coverage_requirement_line(const CoverageResult& r) {
@@ -116,7 +143,7 @@ Table coverage_band_table(const CoverageResult& r) {
       row.push_back(c);
     t.add_row(std::move(row));
   }
-  return t;
+  return lit(std::move(t), r);
 }
 
 Table coverage_point_table(const CoverageResult& r) {
@@ -165,7 +192,7 @@ Table coverage_point_table(const CoverageResult& r) {
     }
     t.add_row(std::move(row));
   }
-  return t;
+  return lit(std::move(t), r);
 }
 
 Table coverage_site_table(const CoverageResult& r) {
@@ -188,7 +215,7 @@ Table coverage_site_table(const CoverageResult& r) {
       row.push_back(c);
     t.add_row(std::move(row));
   }
-  return t;
+  return lit(std::move(t), r);
 }
 
 Table site_pass_table(const CoverageResult& r, const std::vector<SitePass>& passes, const UtcEpoch& epoch) {
@@ -216,7 +243,7 @@ Table in_view_distribution_table(const CoverageResult& r) {
   for (size_t n = 0; n <= last && n < r.in_view_fraction.size(); ++n)
     t.add_row({static_cast<long>(n), std::string(n + 1 == r.in_view_fraction.size() ? "yes" : "no"),
                100.0 * r.in_view_fraction[n]});
-  return t;
+  return lit(std::move(t), r);
 }
 
 Table gap_distribution_table(const CoverageResult& r) {
@@ -224,6 +251,26 @@ Table gap_distribution_table(const CoverageResult& r) {
   t.title = "Revisit gap distribution (area-weighted quantiles)";
   t.columns = {{"quantile_percent", "quantile", "%", 0}, {"gap_s", "gap", "s", 1}};
   for (size_t q = 0; q < r.gap_quantiles_s.size(); ++q) t.add_row({static_cast<long>(q), r.gap_quantiles_s[q]});
+  return lit(std::move(t), r);
+}
+
+Table data_age_table(const CoverageResult& r) {
+  Table t;
+  t.title = fmt::format("Age of the data at downlink, from the start of each {}pass to the satellite's next "
+                        "contact with any station (censored: no contact before the span's end; p95 from {:g} s bins)",
+                        r.min_sun_elevation_deg ? "lit " : "", r.data_age ? r.data_age->bin_s : 0.0);
+  t.columns = {{"name", "site", "", 0},
+               {"observations", r.min_sun_elevation_deg ? "lit passes" : "passes", "", 0},
+               {"censored", "censored", "", 0},
+               {"mean_data_age_s", "mean age", "s", 1},
+               {"p95_data_age_s", "p95 age", "s", 1},
+               {"max_data_age_s", "max age", "s", 1}};
+  if (!r.data_age) return t;
+  const auto add = [&](const std::string& name, const DataAgeFigures& f) {
+    t.add_row({name, f.observations, f.censored, f.mean_s, f.p95_s, f.max_s});
+  };
+  for (size_t p = 0; p < r.points.size(); ++p) add(r.points[p].point.name, r.data_age->per_point[p]);
+  add("all sites (weighted)", r.data_age->total);
   return t;
 }
 
@@ -240,6 +287,11 @@ nlohmann::ordered_json coverage_json(const CoverageResult& result) {
   j["min_elevation_deg"] = result.min_elevation_deg;
   j["nadir_half_angle_deg"] = result.nadir_half_angle_deg ? nlohmann::ordered_json(*result.nadir_half_angle_deg)
                                                           : nlohmann::ordered_json(nullptr);
+  j["min_sun_elevation_deg"] = result.min_sun_elevation_deg ? nlohmann::ordered_json(*result.min_sun_elevation_deg)
+                                                            : nlohmann::ordered_json(nullptr);
+  // What the coverage figures count: "in view", or "lit" (in view while the Sun is at least
+  // min_sun_elevation_deg above the point's horizon).
+  j["coverage_counts"] = result.min_sun_elevation_deg ? "lit" : "in view";
   j["max_fold"] = result.max_fold;
   j["mode"] = std::string(to_string(result.mode));
   j["percent_covered"] = a.percent_by_fold.at(0);
@@ -264,6 +316,21 @@ nlohmann::ordered_json coverage_json(const CoverageResult& result) {
     j["requirement"] = std::move(req);
   } else {
     j["requirement"] = nullptr;
+  }
+  if (result.data_age) {
+    nlohmann::ordered_json age;
+    age["observation_instant"] = result.min_sun_elevation_deg ? "start of each lit pass" : "start of each pass";
+    age["censored_means"] = "no contact of that satellite before the span's end; left out of mean and p95";
+    age["histogram_bin_s"] = result.data_age->bin_s;
+    age["observations"] = result.data_age->total.observations;
+    age["censored"] = result.data_age->total.censored;
+    age["mean_s"] = result.data_age->total.mean_s;
+    age["p95_s"] = result.data_age->total.p95_s;
+    age["max_s"] = result.data_age->total.max_s;
+    age["sites"] = rows_to_json(data_age_table(result));
+    j["data_age"] = std::move(age);
+  } else {
+    j["data_age"] = nullptr;
   }
   j["latitude_bands"] = rows_to_json(coverage_band_table(result));
   j["in_view_distribution"] = rows_to_json(in_view_distribution_table(result));

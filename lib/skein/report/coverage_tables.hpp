@@ -40,6 +40,12 @@ Table gap_distribution_table(const CoverageResult& r);
 
 // The whole coverage result as the JSON `skein coverage --format json` prints (keys in a fixed order).
 nlohmann::ordered_json coverage_json(const CoverageResult& result);
+// Age of the data per site and over the grid (sites grids with ground stations; no rows otherwise): passes
+// (lit passes with the daylight mask), censored ones, mean, p95 and max age (coverage/data_age.hpp).
+Table data_age_table(const CoverageResult& r);
+// A figure caption or section heading about coverage, marked "Lit coverage (...)" when the daylight mask is set
+// (coverage.min_sun_elevation_deg); unchanged otherwise.
+std::string lit_caption(const CoverageResult& r, const std::string& caption);
 
 // One line on the passes found between sample instants and the path error bound behind them.
 std::string coverage_between_instants_note(const CoverageResult& result);

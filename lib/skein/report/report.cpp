@@ -126,6 +126,7 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
     tables.push_back({"coverage_sites", coverage_site_table(rep.coverage)});
     tables.push_back({"site_passes", site_pass_table(rep.coverage, find_site_passes(design, rep.coverage), design.epoch)});
   }
+  if (rep.coverage.data_age) tables.push_back({"data_age", data_age_table(rep.coverage)});
   if (!design.ground_stations.empty()) {
     const ContactResult contacts = compute_contacts(design);
     tables.push_back({"station_load", station_load_table(contacts)});
@@ -148,17 +149,17 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
   const bool has_cells = !rep.coverage.points.empty() && rep.coverage.points.front().point.cell.has_value();
   const MapContext maps{options.land ? &*options.land : nullptr, options.land_note};
   if (has_cells) {
-    figures.push_back({"coverage_map", "Percent of time covered, per grid cell", coverage_map_svg(design, rep.coverage, maps)});
-    figures.push_back({"max_gap_map", "Longest revisit gap per grid cell", max_gap_map_svg(design, rep.coverage, maps)});
+    figures.push_back({"coverage_map", lit_caption(rep.coverage, "Percent of time covered, per grid cell"), coverage_map_svg(design, rep.coverage, maps)});
+    figures.push_back({"max_gap_map", lit_caption(rep.coverage, "Longest revisit gap per grid cell"), max_gap_map_svg(design, rep.coverage, maps)});
   }
   if (rep.coverage.grid == GridKind::sites && !rep.coverage.points.empty())
-    figures.push_back({"sites_map", "The sites and their percent of time covered", sites_map_svg(design, rep.coverage, maps)});
+    figures.push_back({"sites_map", lit_caption(rep.coverage, "The sites and their percent of time covered"), sites_map_svg(design, rep.coverage, maps)});
   // A site list has no latitude profile to speak of (a few points): its map and table say more.
   if (!rep.coverage.bands.empty() && rep.coverage.grid != GridKind::sites)
-    figures.push_back({"coverage_by_latitude", "Percent of time covered against latitude, per fold", coverage_by_latitude_svg(rep.coverage)});
-  figures.push_back({"in_view_histogram", "Distribution of the number of satellites in view", in_view_histogram_svg(rep.coverage)});
+    figures.push_back({"coverage_by_latitude", lit_caption(rep.coverage, "Percent of time covered against latitude, per fold"), coverage_by_latitude_svg(rep.coverage)});
+  figures.push_back({"in_view_histogram", lit_caption(rep.coverage, "Distribution of the number of satellites in view"), in_view_histogram_svg(rep.coverage)});
   if (!rep.coverage.gap_quantiles_s.empty())
-    figures.push_back({"gap_cdf", "Cumulative distribution of revisit gaps", gap_cdf_svg(rep.coverage)});
+    figures.push_back({"gap_cdf", lit_caption(rep.coverage, "Cumulative distribution of revisit gaps"), gap_cdf_svg(rep.coverage)});
   figures.push_back({"dv_budget", "Delta-v per satellite by budget line", dv_budget_svg(rep.budget)});
   for (const auto& sh : rep.budget.shells)
     figures.push_back({"decay_" + sh.name, "Natural decay of the mean altitude of shell " + sh.name + " under each solar level",

@@ -46,6 +46,7 @@ struct ResolvedItem {
 struct ResolvedSection {
   const PageSection* plan = nullptr;
   std::vector<ResolvedItem> items;
+  std::string title;  // the plan's title; "Lit coverage" when the coverage tables count lit coverage only
 };
 
 std::vector<ResolvedSection> resolve(const std::vector<NamedTable>& tables, const std::vector<Figure>& figures,
@@ -53,7 +54,7 @@ std::vector<ResolvedSection> resolve(const std::vector<NamedTable>& tables, cons
   std::set<const void*> placed;
   std::vector<ResolvedSection> out;
   for (const PageSection& s : page_plan()) {
-    ResolvedSection r{&s, {}};
+    ResolvedSection r{&s, {}, s.title};
     for (const std::string& item : s.items) {
       const bool is_table = item.starts_with("table:");
       const std::string pattern = item.substr(is_table ? 6 : 7);
@@ -65,6 +66,10 @@ std::vector<ResolvedSection> resolve(const std::vector<NamedTable>& tables, cons
           if (stem_matches(pattern, f.file) && placed.insert(&f).second) r.items.push_back({nullptr, &f});
       }
     }
+    // A lit-coverage run (daylight mask) says so in the section heading too.
+    if (s.id == "coverage")
+      for (const ResolvedItem& it : r.items)
+        if (it.table && it.table->table.title.starts_with("Lit ")) r.title = "Lit coverage";
     out.push_back(std::move(r));
   }
   for (const NamedTable& t : tables)
@@ -219,7 +224,7 @@ const std::vector<PageSection>& page_plan() {
         "table:differential_drift", "table:beta_eclipse", "figure:beta_angle", "figure:eclipse_minutes"}},
       {"coverage", "Coverage",
        {"table:coverage_requirement", "table:coverage_overview", "table:coverage_folds", "figure:coverage_map",
-        "figure:max_gap_map", "figure:*map", "table:coverage_sites", "figure:site*", "table:site_passes",
+        "figure:max_gap_map", "figure:*map", "table:coverage_sites", "figure:site*", "table:site_passes", "table:data_age",
         "table:coverage_bands", "figure:coverage_by_latitude", "table:coverage_points", "table:in_view_distribution",
         "figure:in_view_histogram", "table:gap_distribution", "figure:gap_cdf"}},
       {"contacts", "Ground contacts",
@@ -288,11 +293,11 @@ std::string html_page(const Design& d, const std::vector<NamedTable>& tables, co
   h += "<nav>";
   for (const auto& s : sections)
     if (!s.items.empty() || s.plan->id == "exports")
-      h += "<a href=\"#" + s.plan->id + "\">" + html_escape(s.plan->title) + "</a>";
+      h += "<a href=\"#" + s.plan->id + "\">" + html_escape(s.title) + "</a>";
   h += "</nav>\n";
   for (const auto& s : sections) {
     if (s.items.empty() && s.plan->id != "exports") continue;
-    h += "<section id=\"" + s.plan->id + "\">\n<h2>" + html_escape(s.plan->title) + "</h2>\n";
+    h += "<section id=\"" + s.plan->id + "\">\n<h2>" + html_escape(s.title) + "</h2>\n";
     if (s.plan->id == "exports") h += exports_text_html;
     for (const auto& it : s.items) h += html_item(it);
     h += "</section>\n";
@@ -328,7 +333,7 @@ std::string summary_markdown(const Design& d, const std::vector<NamedTable>& tab
     for (const auto& it : s.items) body += markdown_item(it);
     if (s.plan->id == "exports") body = exports_text_md;
     if (body.empty()) continue;
-    m += "## " + s.plan->title + "\n\n" + body;
+    m += "## " + s.title + "\n\n" + body;
   }
   return m;
 }

@@ -28,6 +28,9 @@ Table run_record_table(const Design& d, const CoverageResult& c, const BudgetRes
   row("elevation mask", fmt::format("{:g} deg", c.min_elevation_deg));
   row("payload cone", c.nadir_half_angle_deg ? fmt::format("{:g} deg half-angle from nadir", *c.nadir_half_angle_deg)
                                              : std::string("none"));
+  if (c.min_sun_elevation_deg)
+    row("daylight at the target", fmt::format("lit coverage only: Sun at least {:g} deg above the point's horizon",
+                                              *c.min_sun_elevation_deg));
   row("largest fold", fmt::format("{}", c.max_fold));
   row("coverage mode", std::string(to_string(c.mode)));
   row("atmosphere", std::string(to_string(b.atmosphere)));

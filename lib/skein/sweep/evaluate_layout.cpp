@@ -42,6 +42,7 @@ LayoutMetrics evaluate_layout(const Sweep& sweep, const Layout& layout, const La
     m.mean_gap_s = cov.total.gaps_by_fold.at(k).mean_gap_s;
     m.p95_gap_s = grid_figure(cov, RequirementFigure::p95_gap_s, fold);
     m.mean_response_time_s = grid_figure(cov, RequirementFigure::mean_response_time_s, fold);
+    m.p95_data_age_s = grid_figure(cov, RequirementFigure::p95_data_age_s, fold);
     m.failed = failed_check_texts(judge_requirement(sweep.requirement, cov));
     m.mean_in_view = cov.total.mean_in_view;
     const ShellBudget& sb = bud.shells.at(sweep.shell_index);

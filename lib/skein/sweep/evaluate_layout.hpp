@@ -29,6 +29,7 @@ struct LayoutMetrics {
   double worst_instant_percent = 0.0;  // at fold k
   double worst_point_percent = 0.0;    // at fold k: the least-covered point's percent of time covered
   double max_gap_s = 0.0, mean_gap_s = 0.0, p95_gap_s = 0.0, mean_response_time_s = 0.0;  // at fold k
+  double p95_data_age_s = 0.0;  // grid p95 of the age of the data (0 without data age)
   double mean_in_view = 0.0;
   // budget of the (first) varied shell and of the whole design
   double lifetime_days = 0.0;        // first varied shell, natural, selected solar activity

@@ -35,7 +35,8 @@ double shell_combinations(const ShellAxes& ax) {
 
 double design_wide_combinations(const SweepAxes& ax) {
   return static_cast<double>(ax.min_elevation_deg.size() * ax.nadir_half_angle_deg.size() * ax.drag_area_m2.size() *
-                             ax.dry_mass_kg.size() * ax.mission_life_years.size() * ax.solar_activity.size());
+                             ax.dry_mass_kg.size() * ax.mission_life_years.size() * ax.solar_activity.size() *
+                             ax.min_sun_elevation_deg.size());
 }
 
 // Every combination of one shell's axes, in the numbering's nesting order.
@@ -146,7 +147,8 @@ LayoutSet expand_layouts(const Sweep& sweep, double max_layouts) {
             for (double area : ax.drag_area_m2)
               for (double mass : ax.dry_mass_kg)
                 for (double life : ax.mission_life_years)
-                  for (SolarLevel solar : ax.solar_activity) {
+                  for (SolarLevel solar : ax.solar_activity)
+                    for (const auto& sun : ax.min_sun_elevation_deg) {
                     Layout l;
                     l.index = set.layouts.size();
                     for (size_t k = 0; k < raw.size(); ++k) l.shells.push_back(raw[k][at[k]].choice);
@@ -156,6 +158,7 @@ LayoutSet expand_layouts(const Sweep& sweep, double max_layouts) {
                     l.dry_mass_kg = mass;
                     l.mission_life_years = life;
                     l.solar_activity = solar;
+                    l.min_sun_elevation_deg = sun;
                     set.layouts.push_back(std::move(l));
                   }
         break;
@@ -195,6 +198,7 @@ Design layout_design(const Sweep& sweep, const Layout& l) {
   }
   d.coverage.min_elevation_deg = l.min_elevation_deg;
   d.coverage.nadir_half_angle_deg = l.nadir_half_angle_deg;
+  d.coverage.min_sun_elevation_deg = l.min_sun_elevation_deg;
   d.spacecraft.drag_area_m2 = l.drag_area_m2;
   d.spacecraft.dry_mass_kg = l.dry_mass_kg;
   d.budget.mission_life_years = l.mission_life_years;

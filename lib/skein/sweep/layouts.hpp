@@ -27,7 +27,7 @@ struct ShellChoice {
 // One point of the trade space. Layouts are numbered 0, 1, ... in a fixed nesting order, outermost first:
 // for each varied shell in the file's order, T, P, F, pattern, altitude, inclination (sun-synchronous choices
 // once per node local time); then elevation mask, nadir half-angle, drag area, dry mass, mission life, solar
-// activity. An axis with one value does not change the numbering, so a sweep that adds no axis keeps its numbers.
+// activity, least Sun elevation. An axis with one value does not change the numbering, so a sweep that adds no axis keeps its numbers.
 struct Layout {
   size_t index = 0;
   std::vector<ShellChoice> shells;  // one per varied shell, in SweepAxes::shells order
@@ -37,6 +37,7 @@ struct Layout {
   double dry_mass_kg = 0.0;
   double mission_life_years = 0.0;
   SolarLevel solar_activity = SolarLevel::mean;
+  std::optional<double> min_sun_elevation_deg;  // daylight mask (innermost axis)
 };
 
 // Combinations of the axes that are not layouts, counted by reason, each as the number of layout

@@ -47,6 +47,7 @@ void add_design_wide_columns(const Sweep& sweep, std::vector<Column>& c) {
   if (ax.dry_mass_given) c.push_back({"dry_mass_kg", "dry mass", "kg", 2});
   if (ax.mission_life_given) c.push_back({"mission_life_years", "mission life", "years", 2});
   if (ax.solar_given) c.push_back({"solar_activity", "solar activity", "", 0});
+  if (ax.sun_given) c.push_back({"min_sun_elevation_deg", "least Sun elevation", "deg", 2});
 }
 
 void add_design_wide_cells(const Sweep& sweep, const Layout& l, std::vector<Cell>& r) {
@@ -57,6 +58,7 @@ void add_design_wide_cells(const Sweep& sweep, const Layout& l, std::vector<Cell
   if (ax.dry_mass_given) r.emplace_back(l.dry_mass_kg);
   if (ax.mission_life_given) r.emplace_back(l.mission_life_years);
   if (ax.solar_given) r.emplace_back(std::string(to_string(l.solar_activity)));
+  if (ax.sun_given) r.push_back(l.min_sun_elevation_deg ? Cell(*l.min_sun_elevation_deg) : Cell());
 }
 
 }  // namespace
@@ -155,6 +157,8 @@ std::vector<Column> sweep_columns(const Sweep& sweep) {
       {"note", "note", "", 0},
   };
   c.insert(c.end(), figures.begin(), figures.end());
+  // The age of the data, only when the requirement uses it (so other sweeps keep their columns).
+  if (uses_data_age(sweep.requirement)) c.push_back({"p95_data_age_s", "p95 data age", "s", 1});
   return c;
 }
 
@@ -179,9 +183,11 @@ std::vector<Cell> layout_row(const Sweep& sweep, const Layout& l, const LayoutMe
                    opt(m.fleet_propellant_kg), yes_no(m.exceeds_tank), yes_no(m.meets),
                    failed.empty() ? Cell() : Cell(failed), note.empty() ? Cell() : Cell(note)})
       row.push_back(c);
+    if (uses_data_age(sweep.requirement)) row.emplace_back(m.p95_data_age_s);
   } else {
     for (int i = 0; i < 17; ++i) row.emplace_back();
     row.emplace_back(m.error);
+    if (uses_data_age(sweep.requirement)) row.emplace_back();
   }
   assert(row.size() == sweep_columns(sweep).size());
   return row;

@@ -26,6 +26,7 @@ std::string figure_heading(const Sweep& sweep) {
     case RequirementFigure::max_gap_s: return "maximum revisit gap" + gap_fold + " (s)";
     case RequirementFigure::p95_gap_s: return "95th-percentile revisit gap" + gap_fold + " (s)";
     case RequirementFigure::mean_response_time_s: return "mean response time" + gap_fold + " (s)";
+    case RequirementFigure::p95_data_age_s: return "95th-percentile age of the data at downlink (s)";
   }
   return "";
 }

@@ -64,8 +64,9 @@ struct SweepAxes {
   std::vector<double> dry_mass_kg;             // spacecraft.dry_mass_kg
   std::vector<double> mission_life_years;      // budget.mission_life_years
   std::vector<SolarLevel> solar_activity;      // budget.solar_activity
+  std::vector<std::optional<double>> min_sun_elevation_deg;  // coverage.min_sun_elevation_deg; none: no daylight mask
   bool nadir_given = false, drag_area_given = false, dry_mass_given = false, mission_life_given = false,
-       solar_given = false;
+       solar_given = false, sun_given = false;
 };
 
 // Stated limits (common practice for a desktop trade study; --force lifts the layout limit).

@@ -77,7 +77,8 @@ void scan_point(const EvaluationContext& sw, size_t p, long c0, long c1, Partial
       std::sort(events, events + hidden.size(), event_before);
       acc.events += static_cast<std::int64_t>(hidden.size());
       apply_events(ps, sums, events, events + hidden.size(), t0, t1);
-      assert(ps.count == static_cast<int>(fresh.size()));
+      if (sw.daylight) advance_daylight(ps, sums, t1);
+      assert((sw.daylight ? ps.raw : ps.count) == static_cast<int>(fresh.size()));
     }
     add_covered(acc, static_cast<size_t>(step - c0), K, 0, ps.count, sw.weight_q[p]);
     ps.vis.swap(fresh);

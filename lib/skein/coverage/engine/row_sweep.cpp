@@ -78,7 +78,7 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
       for (size_t i = 0; i < n; ++i) {
         const size_t p = static_cast<size_t>(row.point[i]);
         start_timeline(sw.state[p], sw.sums(p), count[i]);
-        add_covered(acc, ls, K, 0, count[i], sw.weight_q[p]);
+        add_covered(acc, ls, K, 0, sw.state[p].count, sw.weight_q[p]);
       }
     } else {
       // Rises and sets inside (t_{j-1}, t_j].
@@ -223,6 +223,16 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
           apply_events(ps, sw.sums(p), eb, ee, t0, t1);
           add_covered(acc, ls, K, before, ps.count, sw.weight_q[p]);
           begin = end;
+        }
+      }
+      // Daylight mask: the changes of daylight up to t_j of every point of the row, with or without events.
+      if (sw.daylight) {
+        for (size_t i = 0; i < n; ++i) {
+          const size_t p = static_cast<size_t>(row.point[i]);
+          PointState& ps = sw.state[p];
+          const int before = ps.count;
+          advance_daylight(ps, sw.sums(p), t1);
+          add_covered(acc, ls, K, before, ps.count, sw.weight_q[p]);
         }
       }
     }
