@@ -31,7 +31,7 @@ double orbit_density_kg_m3(const OrbitAtmosphere& atm, double altitude_km, doubl
     const HarrisPriesterBounds b = harris_priester_bounds(altitude_km);
     rho = b.min_kg_m3 + atm.bulge_weight * (b.max_kg_m3 - b.min_kg_m3);
   }
-  if (atm.solar.level == SolarLevel::mean) return rho;
+  if (atm.solar.level == SolarLevel::mean && atm.solar.amplitude == 1.0) return rho;
   return rho * solar_density_factor(altitude_km, solar_indices_at(atm.solar, t_days));
 }
 

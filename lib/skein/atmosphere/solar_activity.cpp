@@ -47,8 +47,15 @@ SolarIndices solar_cycle_indices(double phase) {
 }
 
 SolarIndices solar_indices_at(const SolarActivity& activity, double t_days) {
-  if (activity.level != SolarLevel::cycle) return solar_indices(activity.level);
-  return solar_cycle_indices(activity.phase_at_epoch + t_days / (solar_cycle_years * days_per_julian_year));
+  assert(activity.amplitude >= 0.0);
+  const SolarIndices stated =
+      activity.level != SolarLevel::cycle
+          ? solar_indices(activity.level)
+          : solar_cycle_indices(activity.phase_at_epoch + t_days / (solar_cycle_years * days_per_julian_year));
+  if (activity.amplitude == 1.0) return stated;  // exactly the stated indices (no rounding through I_low)
+  const SolarIndices lo = solar_indices(SolarLevel::low);
+  return {lo.f107_sfu + activity.amplitude * (stated.f107_sfu - lo.f107_sfu),
+          lo.ap + activity.amplitude * (stated.ap - lo.ap)};
 }
 
 double ips_density_kg_m3(double h, const SolarIndices& s) {

@@ -40,8 +40,11 @@ SolarIndices solar_cycle_indices(double phase);
 struct SolarActivity {
   SolarLevel level = SolarLevel::mean;
   double phase_at_epoch = 0.0;  // used when level == cycle
+  double amplitude = 1.0;       // scale of the swing above the low level (a Monte Carlo draw; 1: as stated)
 };
-// Indices t_days after the epoch.
+// Indices t_days after the epoch. With amplitude s != 1 each index I becomes I_low + s (I - I_low), where I is the
+// level's (or the cycle profile's) value and I_low the low level's: a weaker or stronger cycle (or level) than
+// skein's profile, never below the low level for s >= 0.
 SolarIndices solar_indices_at(const SolarActivity& activity, double t_days);
 
 // Density of the simple solar-activity model (kg/m^3) at altitude_km, valid 180-500 km:

@@ -73,7 +73,7 @@ BudgetSpec read_budget_spec(const yaml::MapReader& root) {
   const yaml::MapReader m = root.map(
       "budget", {"mission_life_years", "atmosphere", "harris_priester_exponent", "solar_activity", "solar_cycle_phase",
                  "solar_minimum_date", "reentry_altitude_km", "deadband_km", "injection_sigma", "node_control",
-                 "sso_inclination_control", "slot_keeping", "collision_avoidance", "disposal", "margin_percent", "injection"});
+                 "sso_inclination_control", "slot_keeping", "collision_avoidance", "disposal", "margin_percent", "injection", "spread", "samples", "seed"});
   spec.present = true;
   spec.mission_life_years =
       m.optional_number("mission_life_years", 0.01, 100.0, "a mission life in years (0.01 to 100)").value_or(5.0);
@@ -137,6 +137,25 @@ BudgetSpec read_budget_spec(const yaml::MapReader& root) {
   }
   spec.margin_percent = m.optional_number("margin_percent", 0.0, 200.0, "a margin in percent").value_or(10.0);
   if (m.has("injection")) spec.injection = read_injection(m, spec.reentry_altitude_km);
+  if (m.has("spread")) {
+    const yaml::MapReader s = m.map("spread", {"solar_minimum_years", "solar_amplitude", "drag_coefficient", "drag_area"});
+    BudgetSpread& sp = spec.spread;
+    sp.solar_minimum_years =
+        s.optional_number("solar_minimum_years", 0.0, 0.5 * solar_cycle_years,
+                          "a half-width in years of the solar-minimum date's spread (0 to 5.5, half a cycle)")
+            .value_or(sp.solar_minimum_years);
+    const std::string_view relative = "a relative 1-sigma spread from 0 to 0.3 (0.1 = 10 %; at most 0.3 so a factor "
+                                      "clipped at 3 sigma stays positive)";
+    sp.solar_amplitude = s.optional_number("solar_amplitude", 0.0, 0.3, relative).value_or(sp.solar_amplitude);
+    sp.drag_coefficient = s.optional_number("drag_coefficient", 0.0, 0.3, relative).value_or(sp.drag_coefficient);
+    sp.drag_area = s.optional_number("drag_area", 0.0, 0.3, relative).value_or(sp.drag_area);
+  }
+  spec.samples = m.optional_integer("samples", monte_carlo_min_samples, monte_carlo_max_samples,
+                                    fmt::format("a Monte Carlo sample count from {} to {}", monte_carlo_min_samples,
+                                                monte_carlo_max_samples));
+  if (const auto seed = m.optional_integer("seed", 0, static_cast<long>(monte_carlo_max_seed),
+                                           "a Monte Carlo seed from 0 to 2^53 = 9007199254740992"))
+    spec.seed = static_cast<unsigned long long>(*seed);
   return spec;
 }
 
