@@ -60,4 +60,11 @@ double ips_density_kg_m3(double altitude_km, const SolarIndices& indices);
 // published table: stated in the README.
 double solar_density_factor(double altitude_km, const SolarIndices& indices);
 
+// The same factor in two parts, for many altitudes at one set of indices: both IPS densities share the divisor
+// D = 27 - 0.012 (h - 200) of their scale heights H = N / D, N = 900 + 2.5 (F10.7 - 70) + 1.5 Ap, so
+//   ln factor = -(h' - 175) D (1/N - 1/N_mean)   (h' clamped to 180..500 km; times the taper below 180 km).
+// solar_inverse_numerator_difference gives 1/N - 1/N_mean (km^-1); solar_density_log_factor the logarithm.
+double solar_inverse_numerator_difference(const SolarIndices& indices);
+double solar_density_log_factor(double altitude_km, double inverse_numerator_difference);
+
 }  // namespace skein

@@ -20,9 +20,8 @@
 namespace skein {
 namespace {
 
-DensityFn density_of(const OrbitAtmosphere& atm) {
-  return [atm](double h, double t) { return orbit_density_kg_m3(atm, h, t); };
-}
+// Each DensityFn holds its own OrbitDensity (with its cache): one per integration, never shared by threads.
+DensityFn density_of(const OrbitAtmosphere& atm) { return OrbitDensity(atm); }
 
 // A failed decay integration is never a lifetime nor a lower bound: refuse it.
 DecayResult require_decay(DecayResult r, std::string_view what) {
@@ -170,7 +169,9 @@ ShellBudget shell_budget_drawn(const Design& design, const Shell& shell, SolarLe
   atm.kind = spec.atmosphere;
   if (atm.kind == AtmosphereKind::harris_priester) {
     const double n = spec.harris_priester_exponent.value_or(harris_priester_default_exponent(i_rad));
-    if (shell.sun_synchronous) {  // each plane keeps its own offset from the mean Sun: average the planes
+    if (draw.bulge_weight) {
+      atm.bulge_weight = *draw.bulge_weight;
+    } else if (shell.sun_synchronous) {  // each plane keeps its own offset from the mean Sun: average the planes
       double w = 0.0;
       for (double node : nodes) w += harris_priester_mean_weight(i_rad, true, node - mean_sun_right_ascension_rad(jd), n);
       atm.bulge_weight = w / static_cast<double>(nodes.size());

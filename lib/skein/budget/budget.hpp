@@ -35,6 +35,9 @@ struct BudgetDraw {
   // The injection errors of this draw (signed); when absent the node line is budgeted at k sigma as stated.
   std::optional<double> injection_altitude_error_km;
   std::optional<double> injection_inclination_error_deg;
+  // The shell's Harris-Priester bulge weight when already known (ShellBudget::bulge_weight of the deterministic
+  // budget): it does not depend on the draw, and averaging it costs more than a sample's decay runs.
+  std::optional<double> bulge_weight;
 };
 
 // One budget line, per satellite, over the mission life.

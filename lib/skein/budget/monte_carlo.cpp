@@ -119,7 +119,8 @@ BudgetSpreadResult compute_budget_spread(const Design& design, const BudgetResul
   tbb::parallel_for(tbb::blocked_range<size_t>(0, n), [&](const tbb::blocked_range<size_t>& range) {
     for (size_t i = range.begin(); i != range.end(); ++i) {
       for (size_t s = 0; s < design.shells.size(); ++s) {
-        const BudgetDraw d = draw_budget_sample(spec, opt.seed, i, s);
+        BudgetDraw d = draw_budget_sample(spec, opt.seed, i, s);
+        d.bulge_weight = det.shells[s].bulge_weight;
         try {
           const ShellBudget b =
               shell_budget_drawn(design, design.shells[s], det.solar, det.solar_cycle_phase_at_epoch, bo, d);
