@@ -72,7 +72,7 @@ void check_monte_carlo_options(const MonteCarloOptions& opt) {
     throw InputError(fmt::format("budget.samples = {}: expected {} to {} Monte Carlo samples (fewer leave under 5 "
                                  "samples beyond P95; more would run for hours)",
                                  opt.samples, monte_carlo_min_samples, monte_carlo_max_samples));
-  if (static_cast<double>(opt.seed) > monte_carlo_max_seed)
+  if (opt.seed > (1ULL << 53))  // monte_carlo_max_seed, compared as an integer
     throw InputError(fmt::format("budget.seed = {}: expected a seed from 0 to 2^53 = {:.0f}", opt.seed,
                                  monte_carlo_max_seed));
 }
