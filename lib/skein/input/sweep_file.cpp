@@ -467,8 +467,8 @@ Sweep read_sweep(const YAML::Node& node, const std::string& file, const std::str
   if (root.has("budget_percentile")) {
     SweepBudgetPercentile bp;
     bp.percent = root.number("budget_percentile", 1.0, 99.0,
-                             "a percentile of the Monte Carlo budget from 1 to 99 (e.g. 95), traded instead of the "
-                             "deterministic delta-v and propellant");
+                             "a percentile of the Monte Carlo budget (e.g. 95), traded instead of the deterministic "
+                             "delta-v and propellant");
     bp.samples = sw.base.budget.samples.value_or(1000);
     bp.seed = sw.base.budget.seed.value_or(1);
     sw.budget_percentile = bp;
