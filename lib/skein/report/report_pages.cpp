@@ -60,6 +60,8 @@ std::string summary_markdown(const Design& d, const std::vector<NamedTable>& tab
                                {"budget_shells", "Lifetime and delta-v budget"},
                                {"budget_lines", ""},
                                {"lifetime_by_level", ""},
+                               {"budget_spread", ""},
+                               {"budget_spread_inputs", ""},
                                {"run_record", "How this report was made"}};
   for (const auto& s : sections)
     for (const auto& t : tables)
