@@ -1,5 +1,7 @@
 #include "skein/atmosphere/atmosphere.hpp"
 
+#include <cmath>
+
 #include "skein/atmosphere/exponential_table.hpp"
 #include "skein/atmosphere/harris_priester.hpp"
 
@@ -23,16 +25,28 @@ double atmosphere_table_top_km(AtmosphereKind kind) {
   return kind == AtmosphereKind::exponential ? exponential_table_top_km : harris_priester_top_km;
 }
 
-double orbit_density_kg_m3(const OrbitAtmosphere& atm, double altitude_km, double t_days) {
+OrbitDensity::OrbitDensity(const OrbitAtmosphere& atm)
+    : atm_(atm), solar_(!(atm.solar.level == SolarLevel::mean && atm.solar.amplitude == 1.0)) {}
+
+double OrbitDensity::operator()(double altitude_km, double t_days) {
   double rho = 0.0;
-  if (atm.kind == AtmosphereKind::exponential) {
+  if (atm_.kind == AtmosphereKind::exponential) {
     rho = exponential_density_kg_m3(altitude_km);
   } else {
     const HarrisPriesterBounds b = harris_priester_bounds(altitude_km);
-    rho = b.min_kg_m3 + atm.bulge_weight * (b.max_kg_m3 - b.min_kg_m3);
+    rho = b.min_kg_m3 + atm_.bulge_weight * (b.max_kg_m3 - b.min_kg_m3);
   }
-  if (atm.solar.level == SolarLevel::mean) return rho;
-  return rho * solar_density_factor(altitude_km, solar_indices_at(atm.solar, t_days));
+  if (!solar_) return rho;
+  if (!known_ || (atm_.solar.level == SolarLevel::cycle && t_days != t_days_)) {
+    inverse_difference_ = solar_inverse_numerator_difference(solar_indices_at(atm_.solar, t_days));
+    t_days_ = t_days;
+    known_ = true;
+  }
+  return rho * std::exp(solar_density_log_factor(altitude_km, inverse_difference_));
+}
+
+double orbit_density_kg_m3(const OrbitAtmosphere& atm, double altitude_km, double t_days) {
+  return OrbitDensity(atm)(altitude_km, t_days);
 }
 
 }  // namespace skein

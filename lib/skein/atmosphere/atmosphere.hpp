@@ -30,4 +30,20 @@ struct OrbitAtmosphere {
 // (solar_density_factor in solar_activity.hpp; 1 for mean activity.)
 double orbit_density_kg_m3(const OrbitAtmosphere& atmosphere, double altitude_km, double t_days);
 
+// orbit_density_kg_m3 as a function object that keeps the solar term of the last time it was asked (a decay step
+// asks many altitudes at one time; a fixed level never changes it): the same formula, fewer transcendental calls.
+// Holds state: one object per thread (a DensityFn copy each).
+class OrbitDensity {
+ public:
+  explicit OrbitDensity(const OrbitAtmosphere& atmosphere);
+  double operator()(double altitude_km, double t_days);
+
+ private:
+  OrbitAtmosphere atm_;
+  bool solar_ = false;        // a solar factor applies (not mean activity at amplitude 1)
+  double t_days_ = 0.0;       // time of inverse_difference_ (cycle only)
+  bool known_ = false;
+  double inverse_difference_ = 0.0;  // solar_inverse_numerator_difference at t_days_
+};
+
 }  // namespace skein

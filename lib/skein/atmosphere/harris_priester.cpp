@@ -33,24 +33,41 @@ constexpr Node nodes[] = {
 };
 constexpr size_t node_count = std::size(nodes);
 
-// Exponential interpolation between two node values (Montenbruck & Gill sec. 3.5.2).
-double interpolate(double h, double h0, double h1, double v0, double v1) {
-  const double scale = (h0 - h1) / std::log(v1 / v0);  // scale height, km (positive)
-  return v0 * std::exp((h0 - h) / scale);
+// Exponential interpolation between two node values (Montenbruck & Gill sec. 3.5.2):
+//   v(h) = v0 exp((h0 - h) / H),  H = (h0 - h1) / ln(v1 / v0).
+// The scale heights H of every band, computed once.
+struct BandScales {
+  double min_km[node_count - 1];
+  double max_km[node_count - 1];
+};
+const BandScales& band_scales() {
+  static const BandScales scales = [] {
+    BandScales s{};
+    for (size_t k = 0; k + 1 < node_count; ++k) {
+      s.min_km[k] = (nodes[k].h_km - nodes[k + 1].h_km) / std::log(nodes[k + 1].min_g_km3 / nodes[k].min_g_km3);
+      s.max_km[k] = (nodes[k].h_km - nodes[k + 1].h_km) / std::log(nodes[k + 1].max_g_km3 / nodes[k].max_g_km3);
+    }
+    return s;
+  }();
+  return scales;
 }
-
 
 }  // namespace
 
 HarrisPriesterBounds harris_priester_bounds(double altitude_km) {
   constexpr double to_si = 1e-12;
   if (altitude_km <= nodes[0].h_km) return {nodes[0].min_g_km3 * to_si, nodes[0].max_g_km3 * to_si};
-  size_t k = 0;  // band [k, k+1] holding h; the last band is extended above the table
-  while (k + 2 < node_count && nodes[k + 1].h_km <= altitude_km) ++k;
+  // Band [k, k+1] holding h (the last band extended above the table): the last node at or below h, by bisection.
+  size_t lo = 0, hi = node_count - 2;
+  while (lo < hi) {
+    const size_t mid = (lo + hi + 1) / 2;
+    if (nodes[mid].h_km <= altitude_km) lo = mid; else hi = mid - 1;
+  }
+  const size_t k = lo;
   const Node& a = nodes[k];
-  const Node& b = nodes[k + 1];
-  return {interpolate(altitude_km, a.h_km, b.h_km, a.min_g_km3, b.min_g_km3) * to_si,
-          interpolate(altitude_km, a.h_km, b.h_km, a.max_g_km3, b.max_g_km3) * to_si};
+  const BandScales& sc = band_scales();
+  return {a.min_g_km3 * std::exp((a.h_km - altitude_km) / sc.min_km[k]) * to_si,
+          a.max_g_km3 * std::exp((a.h_km - altitude_km) / sc.max_km[k]) * to_si};
 }
 
 double harris_priester_density_kg_m3(double altitude_km, double cos_psi, double exponent) {

@@ -47,8 +47,15 @@ SolarIndices solar_cycle_indices(double phase) {
 }
 
 SolarIndices solar_indices_at(const SolarActivity& activity, double t_days) {
-  if (activity.level != SolarLevel::cycle) return solar_indices(activity.level);
-  return solar_cycle_indices(activity.phase_at_epoch + t_days / (solar_cycle_years * days_per_julian_year));
+  assert(activity.amplitude >= 0.0);
+  const SolarIndices stated =
+      activity.level != SolarLevel::cycle
+          ? solar_indices(activity.level)
+          : solar_cycle_indices(activity.phase_at_epoch + t_days / (solar_cycle_years * days_per_julian_year));
+  if (activity.amplitude == 1.0) return stated;  // exactly the stated indices (no rounding through I_low)
+  const SolarIndices lo = solar_indices(SolarLevel::low);
+  return {lo.f107_sfu + activity.amplitude * (stated.f107_sfu - lo.f107_sfu),
+          lo.ap + activity.amplitude * (stated.ap - lo.ap)};
 }
 
 double ips_density_kg_m3(double h, const SolarIndices& s) {
@@ -56,13 +63,24 @@ double ips_density_kg_m3(double h, const SolarIndices& s) {
   return 6e-10 * std::exp(-(h - 175.0) / scale_km);
 }
 
-double solar_density_factor(double altitude_km, const SolarIndices& indices) {
-  static const SolarIndices mean = solar_indices(SolarLevel::mean);
+namespace {
+double ips_numerator_km(const SolarIndices& s) { return 900.0 + 2.5 * (s.f107_sfu - 70.0) + 1.5 * s.ap; }
+}  // namespace
+
+double solar_inverse_numerator_difference(const SolarIndices& indices) {
+  static const double mean_inverse = 1.0 / ips_numerator_km(solar_indices(SolarLevel::mean));
+  return 1.0 / ips_numerator_km(indices) - mean_inverse;
+}
+
+double solar_density_log_factor(double altitude_km, double inverse_difference) {
   const double h = std::clamp(altitude_km, 180.0, 500.0);
-  const double ratio = ips_density_kg_m3(h, indices) / ips_density_kg_m3(h, mean);
-  if (altitude_km >= 180.0) return ratio;
-  const double taper = std::clamp((altitude_km - 100.0) / 80.0, 0.0, 1.0);
-  return std::pow(ratio, taper);
+  const double log_ratio = -(h - 175.0) * (27.0 - 0.012 * (h - 200.0)) * inverse_difference;
+  if (altitude_km >= 180.0) return log_ratio;
+  return std::clamp((altitude_km - 100.0) / 80.0, 0.0, 1.0) * log_ratio;  // ratio^taper
+}
+
+double solar_density_factor(double altitude_km, const SolarIndices& indices) {
+  return std::exp(solar_density_log_factor(altitude_km, solar_inverse_numerator_difference(indices)));
 }
 
 }  // namespace skein

@@ -40,8 +40,11 @@ SolarIndices solar_cycle_indices(double phase);
 struct SolarActivity {
   SolarLevel level = SolarLevel::mean;
   double phase_at_epoch = 0.0;  // used when level == cycle
+  double amplitude = 1.0;       // scale of the swing above the low level (a Monte Carlo draw; 1: as stated)
 };
-// Indices t_days after the epoch.
+// Indices t_days after the epoch. With amplitude s != 1 each index I becomes I_low + s (I - I_low), where I is the
+// level's (or the cycle profile's) value and I_low the low level's: a weaker or stronger cycle (or level) than
+// skein's profile, never below the low level for s >= 0.
 SolarIndices solar_indices_at(const SolarActivity& activity, double t_days);
 
 // Density of the simple solar-activity model (kg/m^3) at altitude_km, valid 180-500 km:
@@ -56,5 +59,12 @@ double ips_density_kg_m3(double altitude_km, const SolarIndices& indices);
 // tapers geometrically to 1 at 100 km (activity matters little there). A skein construction, not a
 // published table: stated in the README.
 double solar_density_factor(double altitude_km, const SolarIndices& indices);
+
+// The same factor in two parts, for many altitudes at one set of indices: both IPS densities share the divisor
+// D = 27 - 0.012 (h - 200) of their scale heights H = N / D, N = 900 + 2.5 (F10.7 - 70) + 1.5 Ap, so
+//   ln factor = -(h' - 175) D (1/N - 1/N_mean)   (h' clamped to 180..500 km; times the taper below 180 km).
+// solar_inverse_numerator_difference gives 1/N - 1/N_mean (km^-1); solar_density_log_factor the logarithm.
+double solar_inverse_numerator_difference(const SolarIndices& indices);
+double solar_density_log_factor(double altitude_km, double inverse_numerator_difference);
 
 }  // namespace skein

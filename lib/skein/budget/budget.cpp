@@ -20,9 +20,8 @@
 namespace skein {
 namespace {
 
-DensityFn density_of(const OrbitAtmosphere& atm) {
-  return [atm](double h, double t) { return orbit_density_kg_m3(atm, h, t); };
-}
+// Each DensityFn holds its own OrbitDensity (with its cache): one per integration, never shared by threads.
+DensityFn density_of(const OrbitAtmosphere& atm) { return OrbitDensity(atm); }
 
 // A failed decay integration is never a lifetime nor a lower bound: refuse it.
 DecayResult require_decay(DecayResult r, std::string_view what) {
@@ -142,10 +141,11 @@ std::string inj_propulsion_basis(RaisingPropulsion propulsion) {
              : "; node rate dOmega/dt = -3/2 n J2 (Re/a)^2 cos i and slot rate dM/dt + domega/dt (Vallado 2013 eq. "
                "9-41), Edelbaum |v0 - v1| there and back at constant thrust (Edelbaum 1961); worst satellite";
 }
+}  // namespace
 
 // One shell's budget. Its InputErrors do not name the file or the shell: compute_budget adds both.
-ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel level, double phase0,
-                         const BudgetOptions& options) {
+ShellBudget shell_budget_drawn(const Design& design, const Shell& shell, SolarLevel level, double phase0,
+                               const BudgetOptions& options, const BudgetDraw& draw) {
   const EarthModel& earth = design.earth;
   const BudgetSpec& spec = design.budget;
   const Spacecraft& sc = design.spacecraft;
@@ -158,7 +158,7 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
   out.apogee_km = shell.a_km * (1.0 + shell.e) - earth.radius_km;
   out.inclination_deg = shell.inclination_deg;
   out.sun_synchronous = shell.sun_synchronous;
-  const double b = sc.ballistic_coefficient_m2_kg();
+  const double b = sc.ballistic_coefficient_m2_kg() * draw.drag_coefficient_factor * draw.drag_area_factor;
   out.ballistic_coefficient_m2_kg = b;
   const double i_rad = shell.inclination_deg * rad_per_deg;
   const double life_days = spec.mission_life_years * days_per_julian_year;
@@ -177,7 +177,9 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
   atm.kind = spec.atmosphere;
   if (atm.kind == AtmosphereKind::harris_priester) {
     const double n = spec.harris_priester_exponent.value_or(harris_priester_default_exponent(i_rad));
-    if (shell.sun_synchronous) {  // each plane keeps its own offset from the mean Sun: average the planes
+    if (draw.bulge_weight) {
+      atm.bulge_weight = *draw.bulge_weight;
+    } else if (shell.sun_synchronous) {  // each plane keeps its own offset from the mean Sun: average the planes
       double w = 0.0;
       for (double node : nodes) w += harris_priester_mean_weight(i_rad, true, node - mean_sun_right_ascension_rad(jd), n);
       atm.bulge_weight = w / static_cast<double>(nodes.size());
@@ -186,7 +188,7 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
     }
     out.bulge_weight = atm.bulge_weight;
   }
-  atm.solar = {level, phase0};
+  atm.solar = {level, phase0 + draw.phase_shift_cycles, draw.solar_amplitude};
   const double top_km = atmosphere_table_top_km(atm.kind);
   if (out.apogee_km > top_km)
     out.warnings.push_back(fmt::format("altitude {:.0f} km is above the {} table ({:.0f} km): densities there are "
@@ -200,6 +202,7 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
     DecayOptions opt;
     opt.reentry_altitude_km = reentry_km;
     opt.horizon_days = horizon_days;
+    opt.record = options.keep_curves;
     const DecayResult r =
         require_decay(integrate_decay(earth, density_of(a), b, {0.0, shell.a_km, shell.e}, opt), "design orbit");
     LevelDecay d;
@@ -310,9 +313,15 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
   const double rate_sigma = std::hypot(sens.per_km * spec.injection_sigma_altitude_km, sens.per_rad * sig_i);
   out.node_spread_uncontrolled_deg = k * std::sqrt(2.0) * rate_sigma * life_s * deg_per_rad;
   double node_dv = 0.0;
-  if (spec.node_control == NodeControl::correct)
-    node_dv = hohmann_dv_m_s(earth.mu_km3_s2, shell.a_km, shell.a_km + k * spec.injection_sigma_altitude_km) +
-              plane_change_dv_m_s(v, k * sig_i);
+  if (spec.node_control == NodeControl::correct) {
+    // Budgeted at k sigma, or (a Monte Carlo draw) the drawn errors removed.
+    const double dh_km = draw.injection_altitude_error_km ? std::abs(*draw.injection_altitude_error_km)
+                                                          : k * spec.injection_sigma_altitude_km;
+    const double di_rad = draw.injection_inclination_error_deg
+                              ? std::abs(*draw.injection_inclination_error_deg) * rad_per_deg
+                              : k * sig_i;
+    node_dv = hohmann_dv_m_s(earth.mu_km3_s2, shell.a_km, shell.a_km + dh_km) + plane_change_dv_m_s(v, di_rad);
+  }
   out.dv_lines.push_back(
       {"node_drift_control", node_dv,
        spec.node_control == NodeControl::correct
@@ -493,8 +502,6 @@ ShellBudget shell_budget(const Design& design, const Shell& shell, SolarLevel le
   return out;
 }
 
-}  // namespace
-
 NaturalLifetime natural_lifetime(const EarthModel& earth, const OrbitAtmosphere& atm, double b, double a_km, double e,
                                  double t0_days, double reentry_km, double horizon_days) {
   DecayOptions opt;
@@ -553,7 +560,8 @@ BudgetResult compute_budget(const Design& design, const BudgetOptions& options) 
   tbb::parallel_for(size_t{0}, design.shells.size(), [&](size_t s) {
     // Every refusal of one shell's budget names the file and the shell.
     try {
-      out.shells[s] = shell_budget(design, design.shells[s], out.solar, out.solar_cycle_phase_at_epoch, options);
+      out.shells[s] =
+          shell_budget_drawn(design, design.shells[s], out.solar, out.solar_cycle_phase_at_epoch, options, BudgetDraw{});
     } catch (const InputError& e) {
       throw InputError(fmt::format("{}: shell {}: {}", design.file, design.shells[s].name, e.what()));
     }

@@ -23,6 +23,22 @@ struct BudgetOptions {
   bool level_curves = true;               // also decay every shell under low, mean and high activity
   double curve_gap_days = 0.0;            // decay-curve row spacing; 0: lifetime / 150
   double curve_drop_km = 5.0;             // and a row at least every this many km of mean altitude
+  bool keep_curves = true;                // keep the decay curves (Monte Carlo samples do not)
+};
+
+// One Monte Carlo draw's departures from the design (budget/monte_carlo.hpp). The default is the design itself:
+// shell_budget_drawn with a default draw gives exactly compute_budget's shell.
+struct BudgetDraw {
+  double phase_shift_cycles = 0.0;          // added to the solar-cycle phase at the epoch (used under cycle)
+  double solar_amplitude = 1.0;             // SolarActivity::amplitude
+  double drag_coefficient_factor = 1.0;     // Cd x this
+  double drag_area_factor = 1.0;            // area x this
+  // The injection errors of this draw (signed); when absent the node line is budgeted at k sigma as stated.
+  std::optional<double> injection_altitude_error_km;
+  std::optional<double> injection_inclination_error_deg;
+  // The shell's Harris-Priester bulge weight when already known (ShellBudget::bulge_weight of the deterministic
+  // budget): it does not depend on the draw, and averaging it costs more than a sample's decay runs.
+  std::optional<double> bulge_weight;
 };
 
 // One budget line, per satellite, over the mission life.
@@ -111,6 +127,11 @@ struct BudgetResult {
 // fails, or any figure that is not finite (naming the shell, the figure and the cause). Never returns NaN
 // or infinity. Budgets that cannot be flown are returned, with ShellBudget::cannot_fly and warnings.
 BudgetResult compute_budget(const Design& design, const BudgetOptions& options = {});
+
+// One shell's budget under one draw, at the solar level and phase compute_budget settled (BudgetResult::solar and
+// solar_cycle_phase_at_epoch). InputErrors name neither the file nor the shell (the caller adds both).
+ShellBudget shell_budget_drawn(const Design& design, const Shell& shell, SolarLevel level, double phase_at_epoch,
+                               const BudgetOptions& options, const BudgetDraw& draw);
 
 // Natural lifetime of a mean orbit (a, e) for ballistic coefficient b_m2_kg under `atmosphere`, starting t0_days
 // after the epoch: the days to re-entry, or the days to horizon_days with lower_bound set when it outlives the

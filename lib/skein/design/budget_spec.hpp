@@ -52,6 +52,28 @@ struct DeploymentSpec {
   std::vector<double> phasing_offsets_km = {1, 2, 5, 10, 20};          // phasing_offsets_km: in-plane spreading
 };
 
+// The input spreads a Monte Carlo budget draws from (budget.spread), with the basis of each default. Each relative
+// spread r draws a factor 1 + r z with z standard normal truncated at +-3 (so r <= 0.3 keeps the factor >= 0.1).
+struct BudgetSpread {
+  // solar_minimum_years: the date of the cycle minimum (so the phase at the epoch) is drawn uniformly within +- this
+  // many years of the stated one. Default 1 year: common practice; cycle lengths run from about 9 to 14 years
+  // (D.H. Hathaway, "The Solar Cycle", Living Rev. Solar Phys. 12, 4 (2015), recalled from memory).
+  double solar_minimum_years = 1.0;
+  // solar_amplitude: relative 1-sigma of the activity swing above the low level (SolarActivity::amplitude).
+  // Default 0.25: common practice; cycle maxima of the last century differ by about a factor of two (Hathaway 2015,
+  // from memory).
+  double solar_amplitude = 0.25;
+  // drag_coefficient and drag_area: relative 1-sigma of Cd and of the mean projected area. Default 0.1 each:
+  // common practice (a Cd of 2.2 for a compact body is a convention, not a measurement; the area varies with attitude).
+  double drag_coefficient = 0.10;
+  double drag_area = 0.10;
+};
+
+// Monte Carlo budget settings of the design file (budget.samples, budget.seed); the CLI's --samples/--seed override.
+inline constexpr long monte_carlo_min_samples = 100;       // fewer leave under 5 samples beyond P95
+inline constexpr long monte_carlo_max_samples = 1000000;   // about 10 minutes on 2 cores at ~1 ms a sample
+inline constexpr double monte_carlo_max_seed = 9007199254740992.0;  // 2^53: every seed exact in YAML and JSON
+
 struct BudgetSpec {
   bool present = false;                          // the design has a budget block
   double mission_life_years = 5.0;               // mission_life_years
@@ -82,6 +104,9 @@ struct BudgetSpec {
   double margin_percent = 10.0;                  // margin_percent
   std::optional<InjectionSpec> injection;        // injection: none means no raising line
   std::optional<DeploymentSpec> deployment;      // deployment: none means no deployment line
+  BudgetSpread spread;                           // spread: the Monte Carlo input spreads
+  std::optional<long> samples;                   // samples: run the Monte Carlo budget with this many samples
+  std::optional<unsigned long long> seed;        // seed (default 1)
 };
 
 

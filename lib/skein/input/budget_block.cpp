@@ -103,7 +103,7 @@ BudgetSpec read_budget_spec(const yaml::MapReader& root) {
       "budget", {"mission_life_years", "atmosphere", "harris_priester_exponent", "solar_activity", "solar_cycle_phase",
                  "solar_minimum_date", "reentry_altitude_km", "deadband_km", "injection_sigma", "node_control",
                  "sso_inclination_control", "slot_keeping", "collision_avoidance", "disposal", "margin_percent", "injection",
-                 "deployment"});
+                 "deployment", "spread", "samples", "seed"});
   spec.present = true;
   spec.mission_life_years =
       m.optional_number("mission_life_years", 0.01, 100.0, "a mission life in years (0.01 to 100)").value_or(5.0);
@@ -173,6 +173,24 @@ BudgetSpec read_budget_spec(const yaml::MapReader& root) {
                                "budget.injection as well");
     spec.deployment = read_deployment(m);
   }
+  if (m.has("spread")) {
+    const yaml::MapReader s = m.map("spread", {"solar_minimum_years", "solar_amplitude", "drag_coefficient", "drag_area"});
+    BudgetSpread& sp = spec.spread;
+    sp.solar_minimum_years =
+        s.optional_number("solar_minimum_years", 0.0, 0.5 * solar_cycle_years,
+                          "a half-width in years of the solar-minimum date's spread (5.5 is half a cycle)")
+            .value_or(sp.solar_minimum_years);
+    const std::string_view relative = "a relative 1-sigma spread (0.1 = 10 %; at most 0.3 so a factor clipped at 3 sigma "
+                                      "stays positive)";
+    sp.solar_amplitude = s.optional_number("solar_amplitude", 0.0, 0.3, relative).value_or(sp.solar_amplitude);
+    sp.drag_coefficient = s.optional_number("drag_coefficient", 0.0, 0.3, relative).value_or(sp.drag_coefficient);
+    sp.drag_area = s.optional_number("drag_area", 0.0, 0.3, relative).value_or(sp.drag_area);
+  }
+  spec.samples = m.optional_integer("samples", monte_carlo_min_samples, monte_carlo_max_samples,
+                                    "a Monte Carlo sample count (fewer than 100 leave under 5 samples beyond P95)");
+  if (const auto seed = m.optional_integer("seed", 0, static_cast<long>(monte_carlo_max_seed),
+                                           "a Monte Carlo seed (the top is 2^53)"))
+    spec.seed = static_cast<unsigned long long>(*seed);
   return spec;
 }
 

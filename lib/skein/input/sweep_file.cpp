@@ -450,7 +450,8 @@ Sweep read_sweep(const YAML::Node& node, const std::string& file, const std::str
     yaml::fail_at(file, yaml::key_node(node, node["shells"] ? "shells" : "epoch"), "",
                   "this is a design file (it has shells, no base or axes), not a sweep; run skein check, coverage, "
                   "budget or report on it, or give skein sweep a sweep file (name, base, axes, requirement)");
-  const MapReader root(file, node, "", {"name", "base", "shell", "coverage", "axes", "requirement", "cost"});
+  const MapReader root(file, node, "", {"name", "base", "shell", "coverage", "axes", "requirement", "cost",
+                                          "budget_percentile"});
   Sweep sw;
   sw.file = file;
   sw.name = root.string("name", "a sweep name");
@@ -474,6 +475,15 @@ Sweep read_sweep(const YAML::Node& node, const std::string& file, const std::str
   sw.axes = read_axes(root, sw);
   sw.requirement = read_requirement(root, sw);
   sw.costs = read_costs(root, sw.base);
+  if (root.has("budget_percentile")) {
+    SweepBudgetPercentile bp;
+    bp.percent = root.number("budget_percentile", 1.0, 99.0,
+                             "a percentile of the Monte Carlo budget (e.g. 95), traded instead of the deterministic "
+                             "delta-v and propellant");
+    bp.samples = sw.base.budget.samples.value_or(1000);
+    bp.seed = sw.base.budget.seed.value_or(1);
+    sw.budget_percentile = bp;
+  }
   std::uint64_t h = fnv1a64(text);
   h = fnv1a64(read_whole_file(sw.base_file), h);
   h = fnv1a64(SKEIN_VERSION, h);

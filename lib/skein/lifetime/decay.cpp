@@ -1,6 +1,7 @@
 #include "skein/lifetime/decay.hpp"
 
 #include <algorithm>
+#include <array>
 #include <cassert>
 #include <cmath>
 
@@ -8,9 +9,23 @@ namespace skein {
 namespace {
 
 constexpr double circular_e = 1e-6;     // below this the orbit is treated as circular
-constexpr int quadrature_intervals = 24;  // trapezoid over E in [0, pi]; the integrands are even in E
+constexpr int max_quadrature_intervals = 24;  // trapezoid over E in [0, pi]; the integrands are even in E
 constexpr long max_steps = 2000000;
 constexpr double min_step_days = 1e-12;  // 86 ns: below this the state is not moving in double precision
+
+// cos(pi k / m) for k = 0..m, for every interval count m = 1..24, computed once (the same expression as before).
+const double* quadrature_cosines(int m) {
+  struct Tables {
+    std::array<std::array<double, max_quadrature_intervals + 1>, max_quadrature_intervals + 1> c{};
+    Tables() {
+      for (int n = 1; n <= max_quadrature_intervals; ++n)
+        for (int k = 0; k <= n; ++k) c[static_cast<size_t>(n)][static_cast<size_t>(k)] = std::cos(pi * k / n);
+    }
+  };
+  static const Tables tables;
+  assert(m >= 1 && m <= max_quadrature_intervals);
+  return tables.c[static_cast<size_t>(m)].data();
+}
 
 double perigee_altitude_km(const EarthModel& earth, const DecayPoint& s) {
   return s.a_km * (1.0 - s.e) - earth.radius_km;
@@ -25,8 +40,20 @@ double scale_height_km(const DensityFn& density, double h, double t) {
 
 }  // namespace
 
+int quadrature_half_intervals(double x) {
+  x = std::abs(x);
+  for (int m = 4; m < max_quadrature_intervals; ++m) {
+    const int n = 2 * m;
+    double term = 2.0;  // 2 (x/2)^n / n!
+    for (int k = 1; k <= n; ++k) term *= 0.5 * x / k;
+    if (term < 1e-10) return m;
+  }
+  return max_quadrature_intervals;
+}
+
 DragRates drag_rates(const EarthModel& earth, const DensityFn& density, double b, double a_km, double e,
-                     double t_days) {
+                     double t_days, int quadrature_intervals) {
+  assert(quadrature_intervals >= 1);
   const double a_m = a_km * 1000.0;
   const double period_s = two_pi * std::sqrt(a_km * a_km * a_km / earth.mu_km3_s2);
   const double per_rev_to_per_day = seconds_per_day / period_s;
@@ -35,10 +62,10 @@ DragRates drag_rates(const EarthModel& earth, const DensityFn& density, double b
     return {-two_pi * b * rho * a_m * a_m / 1000.0 * per_rev_to_per_day, 0.0};
   }
   double ia = 0.0, ie = 0.0;
+  const double* cosines = quadrature_cosines(quadrature_intervals);
   for (int k = 0; k <= quadrature_intervals; ++k) {
-    const double big_e = pi * k / quadrature_intervals;
     const double w = (k == 0 || k == quadrature_intervals) ? 0.5 : 1.0;
-    const double c = std::cos(big_e);
+    const double c = cosines[k];
     const double rho = density(a_km * (1.0 - e * c) - earth.radius_km, t_days);
     const double ratio = std::sqrt((1.0 + e * c) / (1.0 - e * c));
     ia += w * rho * (1.0 + e * c) * ratio;  // (1+ec)^(3/2) / (1-ec)^(1/2)
@@ -57,8 +84,9 @@ DecayResult integrate_decay(const EarthModel& earth, const DensityFn& density, d
   DecayResult out;
   DecayPoint s = start;
   if (opt.record) out.curve.push_back(s);
+  int intervals = max_quadrature_intervals;  // set per step, the same for its four stages
   auto rates = [&](double t, double a, double e) {
-    return drag_rates(earth, density, b, a, std::max(e, 0.0), t);
+    return drag_rates(earth, density, b, a, std::max(e, 0.0), t, intervals);
   };
   auto crossed = [&](const DecayPoint& p) {
     if (perigee_altitude_km(earth, p) <= opt.reentry_altitude_km) return DecayStop::reentry;
@@ -79,9 +107,11 @@ DecayResult integrate_decay(const EarthModel& earth, const DensityFn& density, d
       out.stop = DecayStop::failed;
       break;
     }
-    const DragRates k1 = rates(s.t_days, s.a_km, s.e);
     const double hp = perigee_altitude_km(earth, s);
-    const double length_km = std::max(scale_height_km(density, hp, s.t_days), 0.5 * s.a_km * s.e);
+    const double h_scale_km = scale_height_km(density, hp, s.t_days);
+    intervals = opt.adaptive_quadrature ? quadrature_half_intervals(s.a_km * s.e / h_scale_km) : max_quadrature_intervals;
+    const DragRates k1 = rates(s.t_days, s.a_km, s.e);
+    const double length_km = std::max(h_scale_km, 0.5 * s.a_km * s.e);
     const double speed = std::abs(k1.da_km_per_day);
     if (!std::isfinite(speed)) {
       out.stop = DecayStop::failed;

@@ -13,6 +13,8 @@
 #include "skein/export/oem.hpp"
 #include "skein/drift/beta_eclipse.hpp"
 #include "skein/drift/drift_summary.hpp"
+#include "skein/report/budget_plots.hpp"
+#include "skein/report/budget_spread_tables.hpp"
 #include "skein/report/budget_tables.hpp"
 #include "skein/report/deployment_plot.hpp"
 #include "skein/report/deployment_tables.hpp"
@@ -100,6 +102,15 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
   };
   rep.coverage = evaluate_coverage(design, options.coverage);
   rep.budget = compute_budget(design, options.budget);
+  // The Monte Carlo budget when the design asks for it (budget.samples; the reader checked the count and seed).
+  std::optional<BudgetSpreadResult> spread;
+  if (design.budget.samples) {
+    MonteCarloOptions mc;
+    mc.samples = *design.budget.samples;
+    mc.seed = design.budget.seed.value_or(1);
+    mc.budget = options.budget;
+    spread = compute_budget_spread(design, rep.budget, mc);
+  }
   const auto sats = expand_constellation(design);
   const DriftResult drift = compute_drift(design);
   const BetaEclipseResult beta_eclipse = compute_beta_eclipse(design);
@@ -121,6 +132,10 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
       {"budget_lines", budget_lines_table(rep.budget)},
       {"lifetime_by_level", lifetime_by_level_table(rep.budget)},
   };
+  if (spread) {
+    tables.push_back({"budget_spread", budget_spread_table(*spread)});
+    tables.push_back({"budget_spread_inputs", budget_spread_inputs_table(*spread)});
+  }
   if (rep.coverage.requirement) tables.push_back({"coverage_requirement", coverage_requirement_table(rep.coverage)});
   if (rep.coverage.grid == GridKind::sites) {
     tables.push_back({"coverage_sites", coverage_site_table(rep.coverage)});
@@ -161,6 +176,12 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
   if (!rep.coverage.gap_quantiles_s.empty())
     figures.push_back({"gap_cdf", lit_caption(rep.coverage, "Cumulative distribution of revisit gaps"), gap_cdf_svg(rep.coverage)});
   figures.push_back({"dv_budget", "Delta-v per satellite by budget line", dv_budget_svg(rep.budget)});
+  if (spread) {
+    figures.push_back({"total_dv_histogram", "Total delta-v per satellite over the Monte Carlo samples",
+                       total_dv_histogram_svg(*spread)});
+    figures.push_back({"lifetime_distribution", "Natural lifetime over the Monte Carlo samples",
+                       lifetime_distribution_svg(*spread)});
+  }
   for (const auto& sh : rep.budget.shells)
     figures.push_back({"decay_" + sh.name, "Natural decay of the mean altitude of shell " + sh.name + " under each solar level",
                        decay_curves_svg(sh, design.earth.radius_km)});
@@ -176,6 +197,10 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
                      ground_track_svg(design, rep.coverage.min_elevation_deg, rep.coverage.nadir_half_angle_deg, maps)});
 
   std::vector<std::string> warnings = rep.budget.warnings;
+  if (spread) {
+    warnings.push_back("Monte Carlo budget: " + std::string(budget_spread_caution));
+    for (const auto& w : spread->warnings) warnings.push_back("Monte Carlo: " + w);
+  }
 
   if (!options.record.design_text.empty()) sink("design.yaml", options.record.design_text);
   const ReportAnswer answer = report_answer(rep.coverage, rep.budget);

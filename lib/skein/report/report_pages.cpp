@@ -232,7 +232,8 @@ const std::vector<PageSection>& page_plan() {
         "table:contacts"}},
       {"budget", "Lifetime and delta-v budget",
        {"table:budget_shells", "table:budget_lines", "figure:dv_budget", "table:lifetime_by_level", "figure:decay_*",
-        "table:decay_*", "table:deployment_plans_*", "table:deployment_curve_*", "figure:deployment_*"}},
+        "table:decay_*", "table:deployment_plans_*", "table:deployment_curve_*", "figure:deployment_*",
+        "table:budget_spread", "table:budget_spread_inputs", "figure:total_dv_histogram", "figure:lifetime_distribution"}},
       {"exports", "Exports", {}},
       {"record", "How this report was made", {"table:run_record"}},
   };

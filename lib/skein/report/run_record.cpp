@@ -36,6 +36,8 @@ Table run_record_table(const Design& d, const CoverageResult& c, const BudgetRes
   row("atmosphere", std::string(to_string(b.atmosphere)));
   row("solar activity", std::string(to_string(b.solar)));
   row("mission life", fmt::format("{:g} years", b.mission_life_years));
+  if (d.budget.samples)
+    row("Monte Carlo budget", fmt::format("{} samples, seed {}", *d.budget.samples, d.budget.seed.value_or(1)));
   return t;
 }
 

@@ -5,12 +5,45 @@
 #include <fmt/format.h>
 
 #include "skein/budget/budget.hpp"
+#include "skein/budget/monte_carlo.hpp"
 #include "skein/coverage/cap_bound.hpp"
 #include "skein/coverage/evaluate.hpp"
 #include "skein/coverage/requirement_check.hpp"
 #include "skein/error.hpp"
 
 namespace skein {
+namespace {
+
+double percentile_of(const SpreadFigure& f, double percent) {
+  std::vector<double> sorted = f.values;
+  std::sort(sorted.begin(), sorted.end());
+  return percentile_of_sorted(sorted, percent / 100.0);
+}
+
+// The delta-v and propellant figures (and the tank check) at the sweep's percentile of the layout's Monte Carlo
+// budget; the lifetime stays the deterministic one.
+void apply_budget_percentile(const Design& design, const BudgetResult& bud, const BudgetOptions& bopt,
+                             const SweepBudgetPercentile& bp, size_t shell_index, LayoutMetrics& m) {
+  MonteCarloOptions mc;
+  mc.samples = bp.samples;
+  mc.seed = bp.seed;
+  mc.budget = bopt;
+  const BudgetSpreadResult r = compute_budget_spread(design, bud, mc);
+  const ShellSpread& varied = r.shells.at(shell_index);
+  m.dv_per_satellite_m_s = percentile_of(*varied.find("total_dv"), bp.percent);
+  m.fleet_dv_m_s = percentile_of(r.fleet.at(0), bp.percent);
+  if (m.propellant_per_satellite_kg) m.propellant_per_satellite_kg = percentile_of(*varied.find("propellant"), bp.percent);
+  if (m.fleet_propellant_kg) m.fleet_propellant_kg = percentile_of(r.fleet.at(1), bp.percent);
+  m.exceeds_tank = false;
+  for (size_t s = 0; s < r.shells.size(); ++s) {
+    const auto& cap = design.spacecraft.propellant_capacity_kg;
+    const SpreadFigure* p = r.shells[s].find("propellant");
+    if (cap && p && percentile_of(*p, bp.percent) > *cap) m.exceeds_tank = true;
+  }
+}
+
+}  // namespace
+
 CoverageOptions sweep_coverage_options(const Sweep& sweep, const LayoutEvaluationOptions& options) {
   CoverageOptions c;
   c.max_fold = sweep.requirement.fold;
@@ -55,6 +88,7 @@ LayoutMetrics evaluate_layout(const Sweep& sweep, const Layout& layout, const La
     m.exceeds_tank = std::any_of(bud.shells.begin(), bud.shells.end(), [](const ShellBudget& s) { return s.exceeds_tank; });
     for (const ShellBudget& s : bud.shells)
       for (const auto& why : s.cannot_fly) m.cannot_fly.push_back("shell " + s.name + ": " + why);
+    if (sweep.budget_percentile) apply_budget_percentile(design, bud, bopt, *sweep.budget_percentile, sweep.shell_index, m);
     m.evaluated = true;
   } catch (const InputError& e) {
     m.evaluated = false;

@@ -74,6 +74,14 @@ constexpr double default_max_layouts = 20000;   // layouts a sweep may expand to
 constexpr double hard_max_layouts = 2000000;    // never expanded, even with --force (memory of the layout list)
 constexpr size_t max_axis_values = 10000;       // values one axis may hold
 
+// The budget figure a sweep trades (budget_percentile): the deterministic budget (none), or a percentile of the
+// Monte Carlo budget of each layout (budget/monte_carlo.hpp) with the base design's budget.samples and budget.seed.
+struct SweepBudgetPercentile {
+  double percent = 95.0;   // 1 .. 99
+  long samples = 1000;     // budget.samples of the base design, else 1000
+  unsigned long long seed = 1;
+};
+
 struct Sweep {
   std::string file;            // the sweep file
   std::string name;            // its `name`
@@ -83,6 +91,7 @@ struct Sweep {
   SweepAxes axes;
   Requirement requirement;
   std::vector<CostFigure> costs;  // at least one; the first is the plot's x axis
+  std::optional<SweepBudgetPercentile> budget_percentile;  // the delta-v and propellant figures at this percentile
   std::string fingerprint;     // hash of the sweep and base design texts and the program version (for resume)
 };
 
