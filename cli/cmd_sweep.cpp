@@ -43,7 +43,8 @@ void run(Options opt) {
   const auto threads = limit_threads(opt.threads);
   opt.run.out_dir = !opt.out.empty() ? opt.out : std::filesystem::path(opt.run.folder.sweep_file).stem().string() + "-results";
   opt.run.evaluation.mode = opt.exhaustive ? CoverageMode::exhaustive : CoverageMode::culled;
-  const SweepReadOptions read{opt.run.evaluation.force ? hard_max_layouts : default_max_layouts};
+  SweepReadOptions read;
+  read.max_layouts = opt.run.evaluation.force ? hard_max_layouts : default_max_layouts;
   opt.run.read_sweep = [read](const std::string& file) { return read_sweep_file(file, read); };
   std::atomic<long> finished{0};
   std::unique_ptr<Progress> bar;

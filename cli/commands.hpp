@@ -78,6 +78,7 @@ void add_coverage_command(CLI::App& app);
 void add_budget_command(CLI::App& app);
 void add_report_command(CLI::App& app);
 void add_sweep_command(CLI::App& app);
+void add_search_command(CLI::App& app);
 void add_contacts_command(CLI::App& app);
 
 }  // namespace skein::cli

@@ -70,6 +70,9 @@ std::vector<size_t> front_of(const Sweep& sweep, const std::vector<RowSummary>& 
   return front;
 }
 
+
+}  // namespace
+
 Table front_table(const Sweep& sweep, const LayoutSet& set, const std::vector<RowSummary>& sums,
                   const std::vector<size_t>& members, std::string_view name, bool with_meets) {
   Table t;
@@ -98,7 +101,6 @@ Table front_table(const Sweep& sweep, const LayoutSet& set, const std::vector<Ro
   return t;
 }
 
-}  // namespace
 
 SweepOutputs assemble_outputs(const Sweep& sweep, const LayoutSet& set, const std::map<size_t, std::string>& rows) {
   assert(rows.size() == set.layouts.size());
