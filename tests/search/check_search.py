@@ -4,7 +4,7 @@ skein's code: the minimum over the sweep's results.jsonl of (costs in order, the
 the layout index) among the rows that are evaluated and meet the requirement, as README "The answer and the two
 fronts" states the sweep's rule. Also checks the record: every layout of the space once; every layout skipped by
 the budget or the cap-area bound fails the requirement in the sweep (the bound was safe); every layout skipped by
-cost order ranks after the optimum by its costs alone; every evaluated layout has the sweep's verdict and figure
+cost order ranks after the optimum by its costs alone; the runners-up are the next passing layouts of the same order; every evaluated layout has the sweep's verdict and figure
 (exactly); at most MAX_SHARE of the layouts evaluated.
 The requirement figure is the one answer.json names beside the optimum; percent figures rank higher first, the
 gap and response figures lower first (README, "Requirements").
@@ -33,9 +33,12 @@ def key(r):
 
 
 passing = [r for r in rows.values() if r["status"] in ("ok", "cannot-fly") and r["meets_requirement"] == "yes"]
-brute = min(passing, key=key)["layout"] if passing else None
+ranked = [r["layout"] for r in sorted(passing, key=key)]
+brute = ranked[0] if ranked else None
 got = answer["optimum"]["layout"] if answer["optimum"] else None
 assert got == brute, f"search optimum {got}, brute force over the sweep {brute}"
+runners = [r["layout"] for r in answer["runners_up"]]
+assert runners == ranked[1:1 + len(runners)], f"runners-up {runners}, brute force {ranked[1:1 + len(runners)]}"
 assert len(record) == len(rows) == answer["layouts"], (len(record), len(rows), answer["layouts"])
 evaluated = 0
 for line in record:
@@ -53,5 +56,5 @@ for line in record:
         assert costs(r) > costs(rows[got]), f"layout {line['layout']} skipped by cost order does not cost more"
 assert evaluated == answer["evaluated"], (evaluated, answer["evaluated"])
 assert evaluated <= max_share * len(rows), f"{evaluated} of {len(rows)} layouts evaluated, above {max_share}"
-print(f"optimum {got} = brute force {brute}; {evaluated} of {len(rows)} layouts evaluated "
+print(f"optimum {got} = brute force {brute}, runners-up {runners}; {evaluated} of {len(rows)} layouts evaluated "
       f"({100.0 * evaluated / len(rows):.1f} %); skipped {answer['skipped']}")

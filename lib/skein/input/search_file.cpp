@@ -16,9 +16,9 @@ SearchSettings read_settings(const std::string& path, const YAML::Node& root) {
   const yaml::MapReader top(path, root, "", {"name", "base", "shell", "coverage", "axes", "requirement", "cost", "search"});
   const yaml::MapReader m = top.map("search", {"batch", "runners_up"});
   if (m.has("batch"))
-    s.batch = static_cast<size_t>(m.integer("batch", 1, 10000, "the layouts evaluated together, 1 to 10000"));
+    s.batch = static_cast<size_t>(m.integer("batch", 1, 10000, "the layouts evaluated together"));
   if (m.has("runners_up"))
-    s.runners_up = static_cast<size_t>(m.integer("runners_up", 0, 1000, "the runners-up to list, 0 to 1000"));
+    s.runners_up = static_cast<size_t>(m.integer("runners_up", 0, 1000, "the runners-up to list"));
   return s;
 }
 

@@ -166,7 +166,7 @@ ShellAxes read_shell_axes(const MapReader& m, const Design& base, size_t shell_i
   if (m.has("planes") && m.node("planes").IsScalar() && m.node("planes").Scalar() == "divisors")
     ax.planes_divisors = true;
   else
-    ax.planes = m.has("planes") ? to_ints(read_number_axis(m, "planes", 1, static_cast<double>(max_design_satellites), fmt::format("a plane count P from 1 to {} (or divisors)", max_design_satellites), true))
+    ax.planes = m.has("planes") ? to_ints(read_number_axis(m, "planes", 1, static_cast<double>(max_design_satellites), fmt::format("a plane count P from 1 to {}, or divisors,", max_design_satellites), true))
                                 : std::vector<int>{shell.planes};
   if (m.has("phasing")) {
     const YAML::Node f = m.node("phasing");

@@ -10,31 +10,36 @@ SearchAnswer settle_answer(const Search& search, const SearchPlan& plan, const s
   SearchAnswer a;
   const RequirementFigure figure = search.space.requirement.figure;
   const std::vector<size_t>& order = plan.order;
+  const size_t wanted = 1 + search.settings.runners_up;  // the optimum and its runners-up
+  size_t found = 0;
   size_t g = 0;
   while (g < order.size()) {
     size_t h = g + 1;
     while (h < order.size() && same_costs(plan.layouts[order[g]], plan.layouts[order[h]])) ++h;
-    std::optional<size_t> best;  // position in order
+    std::vector<RowSummary> meeting;
     for (size_t i = g; i < h; ++i) {
       const auto it = rows.find(order[i]);
       if (it == rows.end()) {
         a.open_from = g;
         return a;
       }
-      const RowSummary& r = it->second;
-      if (r.evaluated && r.meets && (!best || ranks_before(r, rows.at(order[*best]), figure))) best = i;
+      if (it->second.evaluated && it->second.meets) meeting.push_back(it->second);
     }
-    if (best) {
-      a.settled = true;
-      a.optimum = order[*best];
-      a.decided_through = h;
-      return a;
+    std::sort(meeting.begin(), meeting.end(),
+              [&](const RowSummary& x, const RowSummary& y) { return ranks_before(x, y, figure); });
+    for (const RowSummary& r : meeting) {
+      if (!a.optimum)
+        a.optimum = r.layout;
+      else if (a.runners_up.size() < search.settings.runners_up)
+        a.runners_up.push_back(r.layout);
     }
+    found += meeting.size();
     g = h;
+    if (found >= wanted) break;
   }
-  a.settled = true;  // every candidate evaluated, none meets
-  a.decided_through = order.size();
-  a.open_from = order.size();
+  a.settled = true;  // the optimum and its runners-up are known, or every candidate is evaluated
+  a.decided_through = g;
+  a.open_from = g;
   return a;
 }
 

@@ -5,7 +5,9 @@
 // own order (ranking.hpp: the requirement figure best first, then the layout index); a tie where none meets
 // passes to the next. Every candidate after the answer's tie costs more than the answer (its costs rank after),
 // so no layout the search does not evaluate can rank before it: the answer is the sweep's cheapest layout
-// meeting the requirement over the same space.
+// meeting the requirement over the same space. The walk goes on through whole ties until settings.runners_up
+// more meeting layouts are found: they are then the next meeting layouts of the sweep's order over the whole
+// space (fewer when the space holds fewer).
 #include <cstddef>
 #include <map>
 #include <optional>
@@ -19,8 +21,9 @@ namespace skein {
 struct SearchAnswer {
   bool settled = false;           // the answer is known (an optimum, or none meets in the whole space)
   std::optional<size_t> optimum;  // layout index
-  size_t decided_through = 0;     // positions of plan.order up to here (exclusive) were needed; the rest is
-                                  // skipped by cost order once settled
+  std::vector<size_t> runners_up; // the next meeting layouts in the sweep's order (layout indices)
+  size_t decided_through = 0;     // positions of plan.order up to here (exclusive) were needed (the ties of the
+                                  // optimum and runners-up); the rest is skipped by cost order once settled
   size_t open_from = 0;           // the first position whose tie is not fully evaluated (when not settled)
 };
 

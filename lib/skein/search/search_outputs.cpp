@@ -62,8 +62,8 @@ SearchOutputs assemble_search_outputs(const Search& search, const LayoutSet& set
     out.optimum_figure = sums.at(*answer.optimum).figure;
   }
   assert(!answer.optimum || (!ranked.empty() && ranked.front() == *answer.optimum));
-  for (size_t k = 1; k < ranked.size() && out.runners_up.size() < search.settings.runners_up; ++k)
-    out.runners_up.push_back(ranked[k]);
+  out.runners_up = answer.runners_up;
+  for (size_t k = 0; k < out.runners_up.size(); ++k) assert(ranked.at(k + 1) == out.runners_up[k]);
 
   // The record: one line per layout.
   const std::vector<double>* optimum_costs = answer.optimum ? &plan.layouts[*answer.optimum].costs : nullptr;
@@ -105,8 +105,8 @@ SearchOutputs assemble_search_outputs(const Search& search, const LayoutSet& set
     for (size_t i : out.runners_up) list.push_back(sums.at(i));
     for (size_t k = 0; k < list.size(); ++k) members.push_back(k);
   }
-  out.answer_table = front_table(space, set, list, members, "optimum and runners-up among the evaluated layouts", false);
-  out.answer_table.title = fmt::format("Search {}: the optimum, then the runners-up among the evaluated layouts",
+  out.answer_table = front_table(space, set, list, members, "optimum and runners-up", false);
+  out.answer_table.title = fmt::format("Search {}: the optimum, then the runners-up (the next meeting layouts by cost)",
                                        space.name);
 
   nlohmann::ordered_json a;
@@ -127,7 +127,7 @@ SearchOutputs assemble_search_outputs(const Search& search, const LayoutSet& set
   a["optimum"] = answer.optimum ? layout_json(*answer.optimum) : nlohmann::ordered_json();
   a["runners_up"] = nlohmann::ordered_json::array();
   for (size_t i : out.runners_up) a["runners_up"].push_back(layout_json(i));
-  a["runners_up_note"] = "runners-up among the evaluated layouts only";
+  a["runners_up_note"] = "the next meeting layouts in cost order over the whole space";
   out.answer_json = a.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) + "\n";
   return out;
 }
@@ -145,7 +145,7 @@ std::string search_summary_text(const Search& search, const LayoutSet& set, cons
   if (o.optimum) {
     t += fmt::format("optimum: layout {} ({}): {}, {} {:.3f}\n", *o.optimum, walker_label(set.layouts[*o.optimum]),
                      costs_text(space, o.optimum_costs), to_string(space.requirement.figure), o.optimum_figure);
-    t += fmt::format("runners-up (among the evaluated layouts only): {}\n", [&] {
+    t += fmt::format("runners-up (the next meeting layouts by cost): {}\n", [&] {
       std::string r;
       for (size_t i : o.runners_up) r += fmt::format("{}{} ({})", r.empty() ? "" : ", ", i, walker_label(set.layouts[i]));
       return r.empty() ? std::string("none") : r;

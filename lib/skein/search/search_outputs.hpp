@@ -5,7 +5,7 @@
 //                   (evaluated, meets or not; or skipped, with the reason and the bound it cites)
 //   evaluated.csv   the evaluated layouts' rows, the sweep's columns (results_rows.hpp), in layout order
 //   evaluated.jsonl the same as JSON lines
-//   answer.json     the optimum, the runners-up (among the evaluated layouts) and the counts
+//   answer.json     the optimum, the runners-up (the next meeting layouts by cost) and the counts
 #include <cstddef>
 #include <map>
 #include <optional>
@@ -34,7 +34,7 @@ struct SearchOutputs {
   std::optional<size_t> optimum;
   std::vector<double> optimum_costs;  // the optimum's costs and requirement figure (when there is one)
   double optimum_figure = 0.0;
-  std::vector<size_t> runners_up;  // the next meeting layouts among the evaluated ones, in the sweep's order
+  std::vector<size_t> runners_up;  // the next meeting layouts in the sweep's order over the whole space
   Table answer_table;              // the optimum and the runners-up (front-table form)
   std::string record_jsonl, evaluated_csv, evaluated_jsonl, answer_json;
   std::vector<std::pair<std::string, const std::string*>> files() const {

@@ -13,7 +13,9 @@ struct SearchSettings {
   // by the file, not by the thread or rank count, so the layouts evaluated, and so the record, do not depend on
   // them; a larger batch evaluates more layouts past the optimum.
   size_t batch = 4;
-  size_t runners_up = 3;  // meeting layouts listed after the optimum (among the evaluated ones)
+  // Meeting layouts listed after the optimum: the search goes on in cost order until it has found them, so they
+  // are the next ones of the sweep's order over the whole space (each costs evaluations past the optimum).
+  size_t runners_up = 3;
 };
 
 struct Search {
