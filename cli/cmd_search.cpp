@@ -25,6 +25,7 @@ struct Options {
   bool exhaustive = false;
   bool as_sweep = false;
   int threads = 0;
+  int runners_up = -1;  // -1: the file's search.runners_up
 };
 
 std::string costs_short(const Sweep& space, const std::vector<double>& c) {
@@ -47,7 +48,12 @@ void run(Options opt) {
   opt.run.out_dir =
       !opt.out.empty() ? opt.out : std::filesystem::path(opt.run.folder.sweep_file).stem().string() + "-search";
   opt.run.evaluation.mode = opt.exhaustive ? CoverageMode::exhaustive : CoverageMode::culled;
-  opt.run.read_search = [read](const std::string& file) { return read_search_file(file, read); };
+  const int runners = opt.runners_up;
+  opt.run.read_search = [read, runners](const std::string& file) {
+    Search s = read_search_file(file, read);
+    if (runners >= 0) s.settings.runners_up = static_cast<size_t>(runners);
+    return s;
+  };
   // Progress: the share of the space settled (skipped, or before the first undecided cost), the best meeting
   // layout so far and the bound (the costs below which every candidate was evaluated and fails).
   std::mutex m;
@@ -120,10 +126,10 @@ void add_search_command(CLI::App& app) {
   add_format_option(*cmd, opt->format);
   cmd->add_flag("--as-sweep", opt->as_sweep,
                 "Print the equivalent sweep file (the full sweep over the same space) and stop");
-  cmd->add_flag("--resume", opt->run.folder.resume, "Continue an interrupted search from its journal");
-  cmd->add_flag("--salvage", opt->run.folder.salvage, "Resume from a journal whose first line is damaged");
-  cmd->add_flag("--restart", opt->run.folder.restart, "Discard an earlier run's journal and start over");
-  cmd->add_flag("--overwrite", opt->run.folder.overwrite, "Write into an existing --out folder skein did not write");
+  cmd->add_option("--runners-up", opt->runners_up,
+                  "Meeting layouts to list after the optimum (replaces search.runners_up; each costs evaluations)")
+      ->check(CLI::Range(0, 1000));
+  add_journal_flags(*cmd, opt->run.folder, "search");
   cmd->add_flag("--force", opt->run.evaluation.force,
                 "Run above the layout limit (200000) and the coverage work and memory limits of each layout");
   cmd->add_flag("--exhaustive", opt->exhaustive, "Test every (satellite, point) pair instead of culling footprints");
@@ -133,10 +139,7 @@ void add_search_command(CLI::App& app) {
       ->group("");
   add_threads_option(*cmd, opt->threads, "Worker threads per process (default: all cores); results do not depend on it");
   cmd->callback([opt] {
-    const SweepFolderOptions& f = opt->run.folder;
-    if ((f.resume || f.salvage) && f.restart)
-      throw InputError(fmt::format("{} and --restart exclude each other; expected one of them",
-                                   f.salvage ? "--salvage" : "--resume"));
+    check_journal_flags(opt->run.folder);
     run(*opt);
   });
 }

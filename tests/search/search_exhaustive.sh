@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # skein search against the full sweep of the same space (skein search --as-sweep, run by skein sweep), on a
 # global and a regional case: the same optimum as the brute-force minimum over the sweep's results.jsonl
-# (check_search.py), every skip justified, at most a quarter of the layouts evaluated. Then, on the global case:
+# (check_search.py), every skip justified, at most a quarter of the layouts evaluated; with 3 runners-up asked
+# for, the runners-up are the next passing layouts of the sweep's order. Then, on the global case:
 # a run stopped after a few evaluations (--stop-after, as a kill at a batch's end) and resumed gives the same
 # record and answer, byte for byte, as one uninterrupted run; so does a run on one thread.
 set -u
@@ -17,6 +18,11 @@ for c in global regional; do
   "$py" "$SOURCE_DIR/tests/search/check_search.py" "$tmp/$c-sweep" "$tmp/$c-search" 0.25 || fail "$c: brute-force check"
   grep -q "^optimum: layout " "$tmp/$c-search.txt" || fail "$c: no optimum line"
 done
+# Runners-up: the regional case asked for 3 (--runners-up), against the next passing layouts of the same sweep
+# (the evaluated share is not bounded then: each runner-up costs evaluations past the optimum).
+"$SKEIN" search "$cases/regional.yaml" --runners-up 3 --out "$tmp/runners" >/dev/null 2>"$tmp/runners.txt" || { cat "$tmp/runners.txt"; fail "runners-up run"; }
+"$py" "$SOURCE_DIR/tests/search/check_search.py" "$tmp/regional-sweep" "$tmp/runners" 1.0 || fail "runners-up check"
+"$py" -c "import json,sys; a=json.load(open(sys.argv[1])); assert len(a['runners_up']) == 3, a['runners_up']" "$tmp/runners/answer.json" || fail "three runners-up"
 # Resume: stop after 3 evaluations (the end of the first batch), resume, compare with the uninterrupted run.
 "$SKEIN" search "$cases/global.yaml" --out "$tmp/resumed" --stop-after 3 >/dev/null 2>"$tmp/stop.txt" || { cat "$tmp/stop.txt"; fail "stopped run"; }
 grep -q "stopped after" "$tmp/stop.txt" || fail "the stopped run did not stop"

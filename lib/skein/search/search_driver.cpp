@@ -14,6 +14,7 @@
 #include "skein/error.hpp"
 #include "skein/io/atomic_write.hpp"
 #include "skein/sweep/journal.hpp"
+#include "skein/sweep/rank_share.hpp"
 #include "skein/sweep/sweep_run.hpp"
 
 namespace skein {
@@ -134,36 +135,10 @@ SearchRunResult run_search(const SearchRunOptions& options, RankGroup& group, co
     position += batch;
     const std::vector<size_t> share = round_robin_share(pending, rank, ranks);
     if (rank != 0) {
-      try {
-        evaluate_layouts(space, set, share, [&](size_t i, const std::string& row) { group.send_row(i, row); }, eval);
-        group.send_done();
-      } catch (const std::exception& e) {
-        if (hooks.ending_all) hooks.ending_all(rank, e.what());
-        group.abort_all(3);
-      }
+      send_share(space, set, share, group, eval, hooks.ending_all);
       continue;
     }
-    if (ranks == 1) {
-      evaluate_layouts(space, set, share, keep, eval);
-    } else {
-      std::exception_ptr worker_error;
-      {
-        std::jthread worker([&] {
-          try {
-            evaluate_layouts(space, set, share, keep, eval);
-          } catch (...) {
-            worker_error = std::current_exception();
-          }
-        });
-        try {
-          group.receive_rows(keep);
-        } catch (const std::exception& e) {
-          if (hooks.ending_all) hooks.ending_all(0, e.what());
-          group.abort_all(2);
-        }
-      }
-      if (worker_error) std::rethrow_exception(worker_error);
-    }
+    keep_share_and_receive(space, set, share, group, keep, eval, hooks.ending_all);
     for (size_t i : pending)
       if (!rows.count(i)) throw std::runtime_error(fmt::format("the row of layout {} did not arrive", i));
   }

@@ -14,6 +14,7 @@
 #include "skein/error.hpp"
 #include "skein/io/atomic_write.hpp"
 #include "skein/sweep/journal.hpp"
+#include "skein/sweep/rank_share.hpp"
 #include "skein/sweep/sweep_run.hpp"
 
 namespace skein {
@@ -114,13 +115,7 @@ SweepRunResult run_sweep(const SweepRunOptions& options, RankGroup& group, const
   const std::vector<size_t> share = round_robin_share(pending, rank, ranks);
 
   if (rank != 0) {
-    try {
-      evaluate_layouts(sweep, set, share, [&](size_t i, const std::string& row) { group.send_row(i, row); }, eval);
-      group.send_done();
-    } catch (const std::exception& e) {
-      if (hooks.ending_all) hooks.ending_all(rank, e.what());
-      group.abort_all(3);
-    }
+    send_share(sweep, set, share, group, eval, hooks.ending_all);
     return role_only(SweepRole::sent_rows);
   }
 
@@ -138,29 +133,7 @@ SweepRunResult run_sweep(const SweepRunOptions& options, RankGroup& group, const
     rows.emplace(i, row);
     if (hooks.row_kept) hooks.row_kept();
   };
-  if (ranks == 1) {
-    evaluate_layouts(sweep, set, share, keep, eval);
-  } else {
-    // Rank 0's own share on a worker thread while this thread receives the others' rows. The jthread joins
-    // when it goes out of scope, also when abort_all throws (a group that cannot end the other processes).
-    std::exception_ptr worker_error;
-    {
-      std::jthread worker([&] {
-        try {
-          evaluate_layouts(sweep, set, share, keep, eval);
-        } catch (...) {
-          worker_error = std::current_exception();
-        }
-      });
-      try {
-        group.receive_rows(keep);
-      } catch (const std::exception& e) {  // e.g. the journal cannot be written: end every rank
-        if (hooks.ending_all) hooks.ending_all(0, e.what());
-        group.abort_all(2);
-      }
-    }
-    if (worker_error) std::rethrow_exception(worker_error);
-  }
+  keep_share_and_receive(sweep, set, share, group, keep, eval, hooks.ending_all);
   if (rows.size() != set.layouts.size())
     throw std::runtime_error(fmt::format("{} of {} rows arrived", rows.size(), set.layouts.size()));
   write_outputs(result, rows);
