@@ -65,34 +65,12 @@ SearchRunResult run_search(const SearchRunOptions& options, RankGroup& group, co
   const Sweep& space = search.space;
   const SearchPlan& plan = result.plan;
 
-  std::string status;
-  std::exception_ptr setup_error;
+  const RankJournal journaled =
+      open_journal_over_ranks(options.folder, options.out_dir, space, set, group, hooks.ending_all);
+  if (!journaled.ok) return role_only(SearchRole::root_reports);
   std::map<size_t, std::string>& rows = result.rows;
-  if (rank == 0) {
-    try {
-      JournalResume j = open_sweep_journal(options.folder, options.out_dir, space, set);
-      rows = std::move(j.rows);
-      result.damaged_lines = j.damaged_lines;
-      std::string mask(set.layouts.size(), '0');
-      for (const auto& r : rows) mask[r.first] = '1';
-      status = "ok" + mask;
-    } catch (...) {
-      setup_error = std::current_exception();
-      status = "error";
-    }
-  }
-  group.broadcast_from_root(status);
-  if (status.rfind("ok", 0) != 0) {
-    if (setup_error) std::rethrow_exception(setup_error);
-    return role_only(SearchRole::root_reports);
-  }
-  if (status.size() != 2 + set.layouts.size()) {
-    if (hooks.ending_all)
-      hooks.ending_all(rank, fmt::format("{} layouts here, {} on rank 0; expected the same search and base design "
-                                         "files on every rank",
-                                         set.layouts.size(), status.size() - 2));
-    group.abort_all(3);
-  }
+  rows = journaled.rows;
+  result.damaged_lines = journaled.damaged_lines;
   const LayoutEvaluationOptions& eval = options.evaluation;
   result.resumed = static_cast<long>(rows.size());
   if (rank == 0 && hooks.started) hooks.started(search, set, plan, rows.size(), ranks);
@@ -131,7 +109,7 @@ SearchRunResult run_search(const SearchRunOptions& options, RankGroup& group, co
     if (command != "go") break;
     std::vector<size_t> pending;
     for (size_t p = position; p < std::min(position + batch, plan.order.size()); ++p)
-      if (status[2 + plan.order[p]] == '0') pending.push_back(plan.order[p]);
+      if (journaled.finished[plan.order[p]] == '0') pending.push_back(plan.order[p]);
     position += batch;
     const std::vector<size_t> share = round_robin_share(pending, rank, ranks);
     if (rank != 0) {

@@ -4,7 +4,44 @@
 #include <mutex>
 #include <thread>
 
+#include <fmt/format.h>
+
 namespace skein {
+
+RankJournal open_journal_over_ranks(const SweepFolderOptions& folder, const std::string& out_dir, const Sweep& sweep,
+                                    const LayoutSet& set, RankGroup& group, const RankFailure& ending_all) {
+  RankJournal out;
+  std::string status;
+  std::exception_ptr setup_error;
+  if (group.rank() == 0) {
+    try {
+      JournalResume j = open_sweep_journal(folder, out_dir, sweep, set);
+      out.rows = std::move(j.rows);
+      out.damaged_lines = j.damaged_lines;
+      std::string mask(set.layouts.size(), '0');
+      for (const auto& r : out.rows) mask[r.first] = '1';
+      status = "ok" + mask;
+    } catch (...) {
+      setup_error = std::current_exception();
+      status = "error";
+    }
+  }
+  group.broadcast_from_root(status);
+  if (status.rfind("ok", 0) != 0) {
+    if (setup_error) std::rethrow_exception(setup_error);
+    return out;
+  }
+  if (status.size() != 2 + set.layouts.size()) {  // rank 0 read another file (files differ between machines)
+    if (ending_all)
+      ending_all(group.rank(), fmt::format("{} layouts here, {} on rank 0; expected the same input and base design "
+                                           "files on every rank",
+                                           set.layouts.size(), status.size() - 2));
+    group.abort_all(3);
+  }
+  out.ok = true;
+  out.finished = status.substr(2);
+  return out;
+}
 
 void send_share(const Sweep& sweep, const LayoutSet& set, const std::vector<size_t>& share, RankGroup& group,
                 const LayoutEvaluationOptions& options, const RankFailure& ending_all) {

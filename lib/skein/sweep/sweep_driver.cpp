@@ -20,14 +20,6 @@
 namespace skein {
 namespace {
 
-// Rank 0 to the others after the journal is read: "ok" and one '0' (pending) or '1' (finished) per layout,
-// or "error" (rank 0 throws the error; the others leave it to rank 0 to report).
-std::string status_text(const std::map<size_t, std::string>& rows, size_t layouts) {
-  std::string mask(layouts, '0');
-  for (const auto& r : rows) mask[r.first] = '1';
-  return "ok" + mask;
-}
-
 void write_outputs(SweepRunResult& r, const std::map<size_t, std::string>& rows) {
   r.outputs = assemble_outputs(r.sweep, r.set, rows);
   const std::vector<std::pair<std::string, const std::string*>> files = {
@@ -81,37 +73,14 @@ SweepRunResult run_sweep(const SweepRunOptions& options, RankGroup& group, const
     throw;
   }
 
-  // Rank 0 alone touches the folder (the others would race its marker); a refusal reaches the others through
-  // the status, before any layout is evaluated or anything written.
-  std::map<size_t, std::string> rows;
-  std::string status;
-  std::exception_ptr setup_error;
-  if (rank == 0) {
-    try {
-      JournalResume j = open_sweep_journal(options.folder, options.out_dir, sweep, set);
-      rows = std::move(j.rows);
-      result.damaged_lines = j.damaged_lines;
-      status = status_text(rows, set.layouts.size());
-    } catch (...) {
-      setup_error = std::current_exception();
-      status = "error";
-    }
-  }
-  group.broadcast_from_root(status);
-  if (status.rfind("ok", 0) != 0) {
-    if (setup_error) std::rethrow_exception(setup_error);
-    return role_only(SweepRole::root_reports);
-  }
-  if (status.size() != 2 + set.layouts.size()) {  // rank 0 read another sweep (files differ between machines)
-    if (hooks.ending_all)
-      hooks.ending_all(rank, fmt::format("{} layouts here, {} on rank 0; expected the same sweep and base design "
-                                         "files on every rank",
-                                         set.layouts.size(), status.size() - 2));
-    group.abort_all(3);
-  }
+  const RankJournal journaled =
+      open_journal_over_ranks(options.folder, options.out_dir, sweep, set, group, hooks.ending_all);
+  if (!journaled.ok) return role_only(SweepRole::root_reports);
+  std::map<size_t, std::string> rows = journaled.rows;
+  result.damaged_lines = journaled.damaged_lines;
   std::vector<size_t> pending;
   for (size_t i = 0; i < set.layouts.size(); ++i)
-    if (status[2 + i] == '0') pending.push_back(i);
+    if (journaled.finished[i] == '0') pending.push_back(i);
   const std::vector<size_t> share = round_robin_share(pending, rank, ranks);
 
   if (rank != 0) {
