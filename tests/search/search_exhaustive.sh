@@ -3,8 +3,9 @@
 # global and a regional case: the same optimum as the brute-force minimum over the sweep's results.jsonl
 # (check_search.py), every skip justified, at most a quarter of the layouts evaluated; with 3 runners-up asked
 # for, the runners-up are the next passing layouts of the sweep's order. Then, on the global case:
-# a run stopped after a few evaluations (--stop-after, as a kill at a batch's end) and resumed gives the same
-# record and answer, byte for byte, as one uninterrupted run; so does a run on one thread.
+# a run stopped after a few evaluations (--stop-after, as a kill at a batch's end) and a run killed with SIGKILL
+# after 6 journaled rows, each resumed, give the same record and answer, byte for byte, as one uninterrupted
+# run; so does a run on one thread.
 set -u
 : "${SKEIN:?path to the skein executable}" "${SOURCE_DIR:?project root}"
 py=/usr/bin/python3
@@ -33,6 +34,20 @@ lines=$(($(wc -l <"$tmp/resumed/journal.txt") - 1))
 grep -q "($lines resumed from the journal)" "$tmp/resume.txt" || { cat "$tmp/resume.txt"; fail "the resume did not keep the $lines journaled rows"; }
 for f in record.jsonl answer.json evaluated.csv evaluated.jsonl; do
   cmp -s "$tmp/resumed/$f" "$tmp/global-search/$f" || fail "$f differs after stop and resume"
+done
+# A real kill: SIGKILL once at least 6 rows are journaled (mid-batch, whatever the timing), then resume.
+"$SKEIN" search "$cases/global.yaml" --out "$tmp/killed" --threads 1 >/dev/null 2>&1 &
+pid=$!
+for _ in $(seq 1 1200); do
+  n=$(($(cat "$tmp/killed/journal.txt" 2>/dev/null | wc -l) - 1))
+  [ "$n" -ge 6 ] && break
+  sleep 0.05
+done
+kill -9 "$pid" 2>/dev/null; wait "$pid" 2>/dev/null
+[ ! -e "$tmp/killed/answer.json" ] || fail "the killed run finished before the kill"
+"$SKEIN" search "$cases/global.yaml" --out "$tmp/killed" --resume >/dev/null 2>"$tmp/killed.txt" || { cat "$tmp/killed.txt"; fail "resume after kill"; }
+for f in record.jsonl answer.json evaluated.csv evaluated.jsonl; do
+  cmp -s "$tmp/killed/$f" "$tmp/global-search/$f" || fail "$f differs after SIGKILL and resume"
 done
 "$SKEIN" search "$cases/global.yaml" --out "$tmp/one-thread" --threads 1 >/dev/null 2>&1 || fail "one-thread run"
 for f in record.jsonl answer.json; do
