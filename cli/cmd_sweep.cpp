@@ -43,7 +43,8 @@ void run(Options opt) {
   const auto threads = limit_threads(opt.threads);
   opt.run.out_dir = !opt.out.empty() ? opt.out : std::filesystem::path(opt.run.folder.sweep_file).stem().string() + "-results";
   opt.run.evaluation.mode = opt.exhaustive ? CoverageMode::exhaustive : CoverageMode::culled;
-  const SweepReadOptions read{opt.run.evaluation.force ? hard_max_layouts : default_max_layouts};
+  SweepReadOptions read;
+  read.max_layouts = opt.run.evaluation.force ? hard_max_layouts : default_max_layouts;
   opt.run.read_sweep = [read](const std::string& file) { return read_sweep_file(file, read); };
   std::atomic<long> finished{0};
   std::unique_ptr<Progress> bar;
@@ -82,22 +83,13 @@ void add_sweep_command(CLI::App& app) {
   cmd->add_option("sweep", opt->run.folder.sweep_file, "Sweep file (YAML)")->required();
   cmd->add_option("--out", opt->out, "Output folder (default: SWEEP-NAME-results in the current folder)");
   add_format_option(*cmd, opt->format);
-  cmd->add_flag("--resume", opt->run.folder.resume, "Continue an interrupted sweep from its journal (finished rows are kept)");
-  cmd->add_flag("--salvage", opt->run.folder.salvage,
-                "Resume from a journal whose first line is damaged: keep every row whose checksum and layout index "
-                "are valid, compute the others");
-  cmd->add_flag("--restart", opt->run.folder.restart, "Discard an earlier run's journal and start over");
-  cmd->add_flag("--overwrite", opt->run.folder.overwrite,
-                "Write into an existing --out folder even when skein did not write it (its result files are replaced)");
+  add_journal_flags(*cmd, opt->run.folder, "sweep");
   cmd->add_flag("--force", opt->run.evaluation.force,
                 "Run above the layout limit (20000) and the coverage work and memory limits of each layout");
   cmd->add_flag("--exhaustive", opt->exhaustive, "Test every (satellite, point) pair instead of culling footprints");
   add_threads_option(*cmd, opt->threads, "Worker threads per process (default: all cores); rows do not depend on it");
   cmd->callback([opt] {
-    const SweepFolderOptions& f = opt->run.folder;
-    if ((f.resume || f.salvage) && f.restart)
-      throw InputError(fmt::format("{} and --restart exclude each other; expected one of them",
-                                   f.salvage ? "--salvage" : "--resume"));
+    check_journal_flags(opt->run.folder);
     run(*opt);
   });
 }

@@ -12,6 +12,7 @@
 #include "skein/error.hpp"
 
 #include "skein/report/table.hpp"
+#include "skein/sweep/sweep_folder.hpp"
 
 namespace skein::cli {
 
@@ -77,7 +78,13 @@ void add_drift_command(CLI::App& app);
 void add_coverage_command(CLI::App& app);
 void add_budget_command(CLI::App& app);
 void add_report_command(CLI::App& app);
+// --resume, --salvage, --restart and --overwrite of a command that keeps a journal ("sweep", "search"), and the
+// refusal of --resume or --salvage with --restart.
+void add_journal_flags(CLI::App& cmd, SweepFolderOptions& folder, const std::string& what);
+void check_journal_flags(const SweepFolderOptions& folder);
+
 void add_sweep_command(CLI::App& app);
+void add_search_command(CLI::App& app);
 void add_contacts_command(CLI::App& app);
 
 }  // namespace skein::cli

@@ -108,6 +108,7 @@ int main(int argc, char** argv) {
   skein::cli::add_budget_command(app);
   skein::cli::add_report_command(app);
   skein::cli::add_sweep_command(app);
+  skein::cli::add_search_command(app);
   skein::cli::set_command_args(argc, argv);
   try {
     app.parse(argc, argv);

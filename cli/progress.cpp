@@ -15,8 +15,9 @@ std::string format_duration(double s) {
                    : fmt::format("{}:{:02d}", t / 60, t % 60);
 }
 
-Progress::Progress(std::string label, std::function<double()> done, double total, std::string unit)
-    : label_(std::move(label)), unit_(std::move(unit)), done_(std::move(done)), total_(total) {
+Progress::Progress(std::string label, std::function<double()> done, double total, std::string unit,
+                   std::function<std::string()> note)
+    : label_(std::move(label)), unit_(std::move(unit)), done_(std::move(done)), note_(std::move(note)), total_(total) {
   if (!isatty(STDERR_FILENO) || !(total_ > 0.0)) return;
   start_ = std::chrono::steady_clock::now();
   thread_ = std::thread([this] {
@@ -33,7 +34,7 @@ Progress::~Progress() {
   }
   cv_.notify_all();
   thread_.join();
-  print_stderr("\r" + std::string(78, ' ') + "\r");
+  print_stderr("\r" + std::string(note_ ? 120 : 78, ' ') + "\r");
 }
 
 void Progress::draw() {
@@ -45,7 +46,10 @@ void Progress::draw() {
   std::string line = fmt::format("\r{} [{}{}] {:5.1f} %", label_, std::string(fill, '#'), std::string(width - fill, '-'),
                                  100.0 * f);
   if (!unit_.empty()) line += fmt::format(" {:.0f}/{:.0f} {}  {:.2f}/s", d, total_, unit_, rate);
-  line += "  left " + (rate > 0.0 ? format_duration((total_ - d) / rate) : std::string("--:--")) + "  ";
+  if (note_)
+    line += "  " + note_() + "  ";
+  else
+    line += "  left " + (rate > 0.0 ? format_duration((total_ - d) / rate) : std::string("--:--")) + "  ";
   print_stderr(line);
 }
 

@@ -17,7 +17,9 @@ class Progress {
  public:
   // `label` starts the line ("coverage", "sweep"); `done` reads the work finished so far, out of `total`;
   // `unit` names it in the line ("layouts"), or is empty to show the share only.
-  Progress(std::string label, std::function<double()> done, double total, std::string unit = "");
+  // `note`, when set, adds a short text after the share (the search's current best and bound).
+  Progress(std::string label, std::function<double()> done, double total, std::string unit = "",
+           std::function<std::string()> note = {});
   ~Progress();
   Progress(const Progress&) = delete;
   Progress& operator=(const Progress&) = delete;
@@ -26,6 +28,7 @@ class Progress {
   void draw();
   std::string label_, unit_;
   std::function<double()> done_;
+  std::function<std::string()> note_;
   double total_;
   std::chrono::steady_clock::time_point start_;
   std::mutex m_;

@@ -20,6 +20,7 @@ LAYERS = [
     ["coverage", "budget", "drift", "export", "io"],
     ["report"],
     ["sweep"],                               # trade sweeps (layouts, evaluation, journal, ranks, outputs)
+    ["search"],                              # layout search over a sweep's space (cost order, bounds, record)
     ["input"],                               # the readers of design and sweep files and their blocks (YAML at the edge)
 ]
 RANK = {folder: i for i, layer in enumerate(LAYERS) for folder in layer}

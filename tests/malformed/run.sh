@@ -2,7 +2,8 @@
 # The malformed-design corpus: runs `skein check` on every case listed in expected.tsv and compares its exit
 # status and its whole stderr with the expected ones (stdout must stay empty: nothing is written on error).
 # Cases under sweep/ are sweep files (or files given where a sweep file is expected): they run through
-# `skein sweep CASE --out DIR`, and DIR must not be created (the reader's guards run before any work).
+# `skein sweep CASE --out DIR`, and DIR must not be created (the reader's guards run before any work); cases
+# under search/ are search files, run through `skein search CASE --out DIR` the same way.
 # Usage: SKEIN=path/to/skein bash tests/malformed/run.sh        (ctest: malformed.corpus)
 # Each line of expected.tsv: CASE <TAB> EXIT_STATUS <TAB> EXACT_STDERR. CASE is a path relative to this
 # folder (a_directory.yaml is a folder, no_such_file.yaml does not exist), or an absolute path (/dev/zero).
@@ -23,7 +24,7 @@ sweep_out="$(mktemp -d)"
 trap 'rm -f "$out_tmp" "$err_tmp" "$new_tsv"; rm -rf "$sweep_out"' EXIT
 
 # Every .yaml here must be listed, so no case is silently skipped.
-for f in *.yaml sweep/*.yaml; do
+for f in *.yaml sweep/*.yaml search/*.yaml; do
   if ! cut -f1 expected.tsv | sed 's/^[a-z]*://' | grep -qxF "$f"; then
     echo "malformed: $f has no line in expected.tsv" >&2
     failures=$((failures + 1))
@@ -38,6 +39,10 @@ while IFS=$'\t' read -r name status message; do
   case "$name" in
     sweep/*)
       timeout 20 "$skein" sweep "$name" --out "$sweep_out/run" > "$out_tmp" 2> "$err_tmp"
+      got_status=$?
+      if [ -e "$sweep_out/run" ]; then wrote=yes; rm -rf "$sweep_out/run"; fi ;;
+    search/*)
+      timeout 20 "$skein" search "$name" --out "$sweep_out/run" > "$out_tmp" 2> "$err_tmp"
       got_status=$?
       if [ -e "$sweep_out/run" ]; then wrote=yes; rm -rf "$sweep_out/run"; fi ;;
     *)

@@ -163,8 +163,11 @@ ShellAxes read_shell_axes(const MapReader& m, const Design& base, size_t shell_i
   ax.satellites = m.has("satellites")
                       ? to_ints(read_number_axis(m, "satellites", 1, static_cast<double>(max_design_satellites), fmt::format("a satellite count T from 1 to {}", max_design_satellites), true))
                       : std::vector<int>{shell.satellites};
-  ax.planes = m.has("planes") ? to_ints(read_number_axis(m, "planes", 1, static_cast<double>(max_design_satellites), fmt::format("a plane count P from 1 to {}", max_design_satellites), true))
-                              : std::vector<int>{shell.planes};
+  if (m.has("planes") && m.node("planes").IsScalar() && m.node("planes").Scalar() == "divisors")
+    ax.planes_divisors = true;
+  else
+    ax.planes = m.has("planes") ? to_ints(read_number_axis(m, "planes", 1, static_cast<double>(max_design_satellites), fmt::format("a plane count P from 1 to {}, or divisors,", max_design_satellites), true))
+                                : std::vector<int>{shell.planes};
   if (m.has("phasing")) {
     const YAML::Node f = m.node("phasing");
     if (f.IsScalar() && f.Scalar() == "all") {
@@ -450,8 +453,10 @@ Sweep read_sweep(const YAML::Node& node, const std::string& file, const std::str
     yaml::fail_at(file, yaml::key_node(node, node["shells"] ? "shells" : "epoch"), "",
                   "this is a design file (it has shells, no base or axes), not a sweep; run skein check, coverage, "
                   "budget or report on it, or give skein sweep a sweep file (name, base, axes, requirement)");
-  const MapReader root(file, node, "", {"name", "base", "shell", "coverage", "axes", "requirement", "cost",
-                                          "budget_percentile"});
+  std::vector<std::string_view> keys = {"name", "base", "shell", "coverage", "axes", "requirement", "cost",
+                                       "budget_percentile"};
+  keys.insert(keys.end(), options.extra_keys.begin(), options.extra_keys.end());
+  const MapReader root(file, node, "", keys);
   Sweep sw;
   sw.file = file;
   sw.name = root.string("name", "a sweep name");

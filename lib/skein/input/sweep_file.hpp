@@ -3,6 +3,8 @@
 // requirement and the costs), at the input edge. The file format is documented in the README ("Trade
 // sweeps"). Throws InputError naming file:line:column, the YAML path and what was expected.
 #include <string>
+#include <string_view>
+#include <vector>
 
 #include "skein/sweep/sweep_spec.hpp"
 
@@ -12,6 +14,9 @@ struct SweepReadOptions {
   // The layouts the axes may expand to (default_max_layouts; hard_max_layouts with --force). A larger
   // expansion, or one with no valid layout, is refused at the axes block.
   double max_layouts = default_max_layouts;
+  // Top-level keys the caller reads itself and the sweep reader accepts without reading (the search file's
+  // `search` block, input/search_file.hpp). Empty for a sweep file.
+  std::vector<std::string_view> extra_keys;
 };
 
 // Read and validate a sweep file and its base design; an axis that expands to no value is an error.

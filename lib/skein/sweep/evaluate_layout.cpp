@@ -52,18 +52,47 @@ CoverageOptions sweep_coverage_options(const Sweep& sweep, const LayoutEvaluatio
   return c;
 }
 
-LayoutMetrics evaluate_layout(const Sweep& sweep, const Layout& layout, const LayoutEvaluationOptions& options) {
-  LayoutMetrics m;
-  const Design design = layout_design(sweep, layout);
+void fill_count_metrics(const Design& design, LayoutMetrics& m) {
+  m.design_satellites = 0;
+  m.design_planes = 0;
   for (const Shell& s : design.shells) {
     m.design_satellites += s.satellites;
     m.design_planes += s.pattern == PatternKind::explicit_planes ? static_cast<int>(s.explicit_planes.size()) : s.planes;
   }
+}
+
+void fill_budget_metrics(const Design& design, size_t shell_index,
+                         const std::optional<SweepBudgetPercentile>& percentile, LayoutMetrics& m) {
+  BudgetOptions bopt;
+  bopt.level_curves = false;  // only the selected activity's lifetime is reported
+  const BudgetResult bud = compute_budget(design, bopt);
+  const ShellBudget& sb = bud.shells.at(shell_index);
+  m.lifetime_days = sb.lifetime_natural_days;
+  m.lifetime_lower_bound = sb.lifetime_lower_bound;
+  m.dv_per_satellite_m_s = sb.total_dv_m_s;
+  m.fleet_dv_m_s = bud.fleet_dv_m_s;
+  m.propellant_per_satellite_kg = sb.propellant_kg;
+  m.fleet_propellant_kg = bud.fleet_propellant_kg;
+  m.exceeds_tank = std::any_of(bud.shells.begin(), bud.shells.end(), [](const ShellBudget& s) { return s.exceeds_tank; });
+  m.cannot_fly.clear();
+  for (const ShellBudget& s : bud.shells)
+    for (const auto& why : s.cannot_fly) m.cannot_fly.push_back("shell " + s.name + ": " + why);
+  if (percentile) apply_budget_percentile(design, bud, bopt, *percentile, shell_index, m);
+}
+
+std::vector<std::string> budget_failures(const Requirement& requirement, const LayoutMetrics& m) {
+  std::vector<std::string> out;
+  if (requirement.within_tank && m.exceeds_tank) out.push_back("propellant exceeds the tank");
+  if (!m.cannot_fly.empty()) out.push_back("the budget cannot be flown");  // never the answer of a sweep
+  return out;
+}
+
+LayoutMetrics evaluate_layout(const Sweep& sweep, const Layout& layout, const LayoutEvaluationOptions& options) {
+  LayoutMetrics m;
+  const Design design = layout_design(sweep, layout);
+  fill_count_metrics(design, m);
   try {
     const CoverageResult cov = evaluate_coverage(design, sweep_coverage_options(sweep, options));
-    BudgetOptions bopt;
-    bopt.level_curves = false;  // only the selected activity's lifetime is reported
-    const BudgetResult bud = compute_budget(design, bopt);
     const int fold = sweep.requirement.fold;
     const size_t k = static_cast<size_t>(fold - 1);
     // The requirement figures as the judge reads them (grid_figure), so a row and its verdict cannot disagree.
@@ -78,25 +107,14 @@ LayoutMetrics evaluate_layout(const Sweep& sweep, const Layout& layout, const La
     m.p95_data_age_s = grid_figure(cov, RequirementFigure::p95_data_age_s, fold);
     m.failed = failed_check_texts(judge_requirement(sweep.requirement, cov));
     m.mean_in_view = cov.total.mean_in_view;
-    const ShellBudget& sb = bud.shells.at(sweep.shell_index);
-    m.lifetime_days = sb.lifetime_natural_days;
-    m.lifetime_lower_bound = sb.lifetime_lower_bound;
-    m.dv_per_satellite_m_s = sb.total_dv_m_s;
-    m.fleet_dv_m_s = bud.fleet_dv_m_s;
-    m.propellant_per_satellite_kg = sb.propellant_kg;
-    m.fleet_propellant_kg = bud.fleet_propellant_kg;
-    m.exceeds_tank = std::any_of(bud.shells.begin(), bud.shells.end(), [](const ShellBudget& s) { return s.exceeds_tank; });
-    for (const ShellBudget& s : bud.shells)
-      for (const auto& why : s.cannot_fly) m.cannot_fly.push_back("shell " + s.name + ": " + why);
-    if (sweep.budget_percentile) apply_budget_percentile(design, bud, bopt, *sweep.budget_percentile, sweep.shell_index, m);
+    fill_budget_metrics(design, sweep.shell_index, sweep.budget_percentile, m);
     m.evaluated = true;
   } catch (const InputError& e) {
     m.evaluated = false;
     m.error = e.what();
     return m;
   }
-  if (sweep.requirement.within_tank && m.exceeds_tank) m.failed.push_back("propellant exceeds the tank");
-  if (!m.cannot_fly.empty()) m.failed.push_back("the budget cannot be flown");  // never the answer of a sweep
+  for (auto& f : budget_failures(sweep.requirement, m)) m.failed.push_back(std::move(f));
   m.meets = m.failed.empty();
   return m;
 }

@@ -46,6 +46,19 @@ struct LayoutMetrics {
                                      // they name the failing sites
 };
 
+// The layout design's satellite and plane counts (every shell).
+void fill_count_metrics(const Design& design, LayoutMetrics& metrics);
+// The budget figures of a layout's design (compute_budget, without the solar-level curves): lifetime, delta-v and
+// propellant of shell `shell_index` and of the fleet, the tank and cannot-fly flags. Throws InputError when the
+// budget refuses the design. evaluate_layout calls it after the coverage; a search calls it alone (no coverage)
+// to order layouts by cost, so both hold the same numbers. With `percentile` (a sweep's budget_percentile), the
+// delta-v, propellant and tank figures are that percentile of the layout's Monte Carlo budget.
+void fill_budget_metrics(const Design& design, size_t shell_index,
+                         const std::optional<SweepBudgetPercentile>& percentile, LayoutMetrics& metrics);
+// The failed checks that come from the budget alone (propellant over the tank when the requirement asks for it,
+// a budget that cannot be flown): a layout with any never meets the requirement, whatever its coverage.
+std::vector<std::string> budget_failures(const Requirement& requirement, const LayoutMetrics& metrics);
+
 // Evaluate one layout. InputErrors from the evaluators (for this layout's values) are caught and returned as
 // evaluated = false; they do not stop the sweep.
 LayoutMetrics evaluate_layout(const Sweep& sweep, const Layout& layout, const LayoutEvaluationOptions& options = {});

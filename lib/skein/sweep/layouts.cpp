@@ -26,11 +26,21 @@ size_t orbit_plane_choices(const ShellAxes& ax) {
   return n;
 }
 
+// The P values combined with T: the P axis, or every divisor of T (ascending) with `planes: divisors`.
+std::vector<int> planes_for(const ShellAxes& ax, int t) {
+  if (!ax.planes_divisors) return ax.planes;
+  std::vector<int> out;
+  for (int p = 1; p <= t; ++p)
+    if (t % p == 0) out.push_back(p);
+  return out;
+}
+
 double shell_combinations(const ShellAxes& ax) {
-  double f_per_tp = 0.0;
-  for (int p : ax.planes) f_per_tp += ax.phasing ? static_cast<double>(ax.phasing->size()) : static_cast<double>(p);
-  return static_cast<double>(ax.satellites.size()) * f_per_tp * static_cast<double>(ax.patterns.size()) *
-         static_cast<double>(ax.altitude_km.size()) * static_cast<double>(orbit_plane_choices(ax));
+  double tpf = 0.0;
+  for (int t : ax.satellites)
+    for (int p : planes_for(ax, t)) tpf += ax.phasing ? static_cast<double>(ax.phasing->size()) : static_cast<double>(p);
+  return tpf * static_cast<double>(ax.patterns.size()) * static_cast<double>(ax.altitude_km.size()) *
+         static_cast<double>(orbit_plane_choices(ax));
 }
 
 double design_wide_combinations(const SweepAxes& ax) {
@@ -45,7 +55,7 @@ std::vector<RawChoice> shell_choices(const Sweep& sweep, const ShellAxes& ax) {
   const EarthModel& earth = sweep.base.earth;
   std::vector<RawChoice> out;
   for (int t : ax.satellites) {
-    for (int p : ax.planes) {
+    for (int p : planes_for(ax, t)) {
       std::vector<int> fs;
       if (ax.phasing) {
         fs = *ax.phasing;

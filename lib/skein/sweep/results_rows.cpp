@@ -251,4 +251,19 @@ RowSummary summarize_row(const Sweep& sweep, const std::vector<Cell>& cells) {
   return s;
 }
 
+std::vector<double> cost_values(const Sweep& sweep, const LayoutMetrics& m) {
+  std::vector<double> out;
+  for (CostFigure c : sweep.costs) {
+    switch (c) {
+      case CostFigure::satellites: out.push_back(static_cast<double>(m.design_satellites)); break;
+      case CostFigure::planes: out.push_back(static_cast<double>(m.design_planes)); break;
+      case CostFigure::fleet_dv_m_s: out.push_back(m.fleet_dv_m_s); break;
+      case CostFigure::dv_per_satellite_m_s: out.push_back(m.dv_per_satellite_m_s); break;
+      case CostFigure::fleet_propellant_kg: out.push_back(m.fleet_propellant_kg.value_or(0.0)); break;
+      case CostFigure::propellant_per_satellite_kg: out.push_back(m.propellant_per_satellite_kg.value_or(0.0)); break;
+    }
+  }
+  return out;
+}
+
 }  // namespace skein

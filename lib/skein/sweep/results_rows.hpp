@@ -46,4 +46,8 @@ struct RowSummary {
 };
 RowSummary summarize_row(const Sweep& sweep, const std::vector<Cell>& cells);
 
+// A layout's costs, one per sweep.costs, from its metrics (the count and budget figures suffice): the values
+// summarize_row reads back from the layout's row (a cost with no value, a propellant without isp_s, is 0).
+std::vector<double> cost_values(const Sweep& sweep, const LayoutMetrics& metrics);
+
 }  // namespace skein

@@ -14,18 +14,11 @@
 #include "skein/error.hpp"
 #include "skein/io/atomic_write.hpp"
 #include "skein/sweep/journal.hpp"
+#include "skein/sweep/rank_share.hpp"
 #include "skein/sweep/sweep_run.hpp"
 
 namespace skein {
 namespace {
-
-// Rank 0 to the others after the journal is read: "ok" and one '0' (pending) or '1' (finished) per layout,
-// or "error" (rank 0 throws the error; the others leave it to rank 0 to report).
-std::string status_text(const std::map<size_t, std::string>& rows, size_t layouts) {
-  std::string mask(layouts, '0');
-  for (const auto& r : rows) mask[r.first] = '1';
-  return "ok" + mask;
-}
 
 void write_outputs(SweepRunResult& r, const std::map<size_t, std::string>& rows) {
   r.outputs = assemble_outputs(r.sweep, r.set, rows);
@@ -80,47 +73,18 @@ SweepRunResult run_sweep(const SweepRunOptions& options, RankGroup& group, const
     throw;
   }
 
-  // Rank 0 alone touches the folder (the others would race its marker); a refusal reaches the others through
-  // the status, before any layout is evaluated or anything written.
-  std::map<size_t, std::string> rows;
-  std::string status;
-  std::exception_ptr setup_error;
-  if (rank == 0) {
-    try {
-      JournalResume j = open_sweep_journal(options.folder, options.out_dir, sweep, set);
-      rows = std::move(j.rows);
-      result.damaged_lines = j.damaged_lines;
-      status = status_text(rows, set.layouts.size());
-    } catch (...) {
-      setup_error = std::current_exception();
-      status = "error";
-    }
-  }
-  group.broadcast_from_root(status);
-  if (status.rfind("ok", 0) != 0) {
-    if (setup_error) std::rethrow_exception(setup_error);
-    return role_only(SweepRole::root_reports);
-  }
-  if (status.size() != 2 + set.layouts.size()) {  // rank 0 read another sweep (files differ between machines)
-    if (hooks.ending_all)
-      hooks.ending_all(rank, fmt::format("{} layouts here, {} on rank 0; expected the same sweep and base design "
-                                         "files on every rank",
-                                         set.layouts.size(), status.size() - 2));
-    group.abort_all(3);
-  }
+  const RankJournal journaled =
+      open_journal_over_ranks(options.folder, options.out_dir, sweep, set, group, hooks.ending_all);
+  if (!journaled.ok) return role_only(SweepRole::root_reports);
+  std::map<size_t, std::string> rows = journaled.rows;
+  result.damaged_lines = journaled.damaged_lines;
   std::vector<size_t> pending;
   for (size_t i = 0; i < set.layouts.size(); ++i)
-    if (status[2 + i] == '0') pending.push_back(i);
+    if (journaled.finished[i] == '0') pending.push_back(i);
   const std::vector<size_t> share = round_robin_share(pending, rank, ranks);
 
   if (rank != 0) {
-    try {
-      evaluate_layouts(sweep, set, share, [&](size_t i, const std::string& row) { group.send_row(i, row); }, eval);
-      group.send_done();
-    } catch (const std::exception& e) {
-      if (hooks.ending_all) hooks.ending_all(rank, e.what());
-      group.abort_all(3);
-    }
+    send_share(sweep, set, share, group, eval, hooks.ending_all);
     return role_only(SweepRole::sent_rows);
   }
 
@@ -138,29 +102,7 @@ SweepRunResult run_sweep(const SweepRunOptions& options, RankGroup& group, const
     rows.emplace(i, row);
     if (hooks.row_kept) hooks.row_kept();
   };
-  if (ranks == 1) {
-    evaluate_layouts(sweep, set, share, keep, eval);
-  } else {
-    // Rank 0's own share on a worker thread while this thread receives the others' rows. The jthread joins
-    // when it goes out of scope, also when abort_all throws (a group that cannot end the other processes).
-    std::exception_ptr worker_error;
-    {
-      std::jthread worker([&] {
-        try {
-          evaluate_layouts(sweep, set, share, keep, eval);
-        } catch (...) {
-          worker_error = std::current_exception();
-        }
-      });
-      try {
-        group.receive_rows(keep);
-      } catch (const std::exception& e) {  // e.g. the journal cannot be written: end every rank
-        if (hooks.ending_all) hooks.ending_all(0, e.what());
-        group.abort_all(2);
-      }
-    }
-    if (worker_error) std::rethrow_exception(worker_error);
-  }
+  keep_share_and_receive(sweep, set, share, group, keep, eval, hooks.ending_all);
   if (rows.size() != set.layouts.size())
     throw std::runtime_error(fmt::format("{} of {} rows arrived", rows.size(), set.layouts.size()));
   write_outputs(result, rows);

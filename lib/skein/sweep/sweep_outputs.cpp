@@ -73,6 +73,9 @@ std::vector<size_t> front_of(const Sweep& sweep, const std::vector<RowSummary>& 
   return front;
 }
 
+
+}  // namespace
+
 Table front_table(const Sweep& sweep, const LayoutSet& set, const std::vector<RowSummary>& sums,
                   const std::vector<size_t>& members, std::string_view name, bool with_meets) {
   Table t;
@@ -100,6 +103,8 @@ Table front_table(const Sweep& sweep, const LayoutSet& set, const std::vector<Ro
   }
   return t;
 }
+
+namespace {
 
 // A front member's label: T/P/F and altitude of each varied shell ("24/4/1 550 km", shells joined by " + ").
 std::string layout_label(const Layout& l) {

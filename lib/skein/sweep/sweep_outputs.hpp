@@ -8,6 +8,7 @@
 #include <optional>
 #include <string>
 #include <string_view>
+#include <vector>
 
 #include "skein/report/table.hpp"
 #include "skein/sweep/layouts.hpp"
@@ -44,6 +45,12 @@ struct SweepOutputs {
   std::string fronts_svg;   // every evaluated layout, both fronts drawn as their own series; "" when none
   SweepSummary summary;
 };
+
+// A table of layouts in the front tables' form: front_layout_cells, the requirement figure, each cost, and with
+// `with_meets` whether the layout meets the requirement; one row per entry of `members` (positions in `sums`),
+// in the given order. `name` enters the title.
+Table front_table(const Sweep& sweep, const LayoutSet& set, const std::vector<RowSummary>& sums,
+                  const std::vector<size_t>& members, std::string_view name, bool with_meets);
 
 // `rows` holds the encoded row of every layout of `set` (asserted). Two Pareto sets, each on the objectives
 // (requirement figure, every cost):

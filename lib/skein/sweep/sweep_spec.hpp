@@ -45,7 +45,8 @@ struct LocalTimeChoice {
 struct ShellAxes {
   size_t shell_index = 0;                      // the shell of the base design that is varied
   std::vector<int> satellites;                 // T
-  std::vector<int> planes;                     // P
+  std::vector<int> planes;                     // P (empty when planes_divisors)
+  bool planes_divisors = false;                // P takes every divisor of each T, ascending (`planes: divisors`)
   std::optional<std::vector<int>> phasing;     // F; nullopt: every F from 0 to P-1 ("all")
   std::vector<PatternKind> patterns;           // walker-delta and/or walker-star
   bool pattern_given = false;                  // the file gives `pattern` (the results then list it)

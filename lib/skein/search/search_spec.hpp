@@ -1,0 +1,26 @@
+#pragma once
+// A layout search: the space (a sweep over the same axes, so the search and a full sweep of that space number
+// the same layouts and judge them the same way) and the search's own settings. Read from a search file by
+// input/search_file.hpp (the format is in the README, "Layout search"); these types carry no YAML positions.
+#include <cstddef>
+
+#include "skein/sweep/sweep_spec.hpp"
+
+namespace skein {
+
+struct SearchSettings {
+  // Layouts evaluated together, in cost order (in parallel over threads and MPI ranks). The batches are fixed
+  // by the file, not by the thread or rank count, so the layouts evaluated, and so the record, do not depend on
+  // them; a larger batch evaluates more layouts past the optimum.
+  size_t batch = 4;
+  // Meeting layouts listed after the optimum: the search goes on in cost order until it has found them, so they
+  // are the next ones of the sweep's order over the whole space (each costs evaluations past the optimum).
+  size_t runners_up = 3;
+};
+
+struct Search {
+  Sweep space;  // base design, axes, requirement, costs: exactly what the equivalent sweep file reads to
+  SearchSettings settings;
+};
+
+}  // namespace skein
