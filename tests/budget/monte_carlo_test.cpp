@@ -190,7 +190,7 @@ TEST_CASE("the draws: centred, with the stated spreads, each spread independent 
   }
 }
 
-TEST_CASE("an activity amplitude of 1 is the stated activity; others scale the swing above the low level") {
+TEST_CASE("an activity amplitude of 1 is the stated activity, and others scale the swing above the low level") {
   // F = F_low + s (F - F_low): mean level F10.7 140, low 65, so s = 0.5 gives 102.5 and Ap 0 + 0.5 x 15 = 7.5.
   SolarActivity a{SolarLevel::mean, 0.0, 0.5};
   CHECK(solar_indices_at(a, 0.0).f107_sfu == doctest::Approx(102.5).epsilon(1e-14));
