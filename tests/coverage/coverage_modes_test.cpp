@@ -4,6 +4,8 @@
 
 #include <tbb/global_control.h>
 
+#include <utility>
+
 #include "coverage_test_designs.hpp"
 #include "skein/coverage/evaluate.hpp"
 
@@ -108,17 +110,25 @@ TEST_CASE("coverage modes: culled and exhaustive agree at poles, across the anti
   }
 }
 
-TEST_CASE("coverage modes: results do not depend on the TBB thread count") {
-  const Design d = mixed_design();
-  CoverageResult one, two;
+namespace {
+// The same design evaluated (culled) with TBB limited to one thread, then to two.
+std::pair<CoverageResult, CoverageResult> at_one_and_two_threads(const Design& d) {
+  std::pair<CoverageResult, CoverageResult> out;
   {
     tbb::global_control c(tbb::global_control::max_allowed_parallelism, 1);
-    one = evaluate_coverage(d);
+    out.first = evaluate_coverage(d);
   }
   {
     tbb::global_control c(tbb::global_control::max_allowed_parallelism, 2);
-    two = evaluate_coverage(d);
+    out.second = evaluate_coverage(d);
   }
+  return out;
+}
+}  // namespace
+
+TEST_CASE("coverage modes: results do not depend on the TBB thread count") {
+  const Design d = mixed_design();
+  const auto [one, two] = at_one_and_two_threads(d);
   check_same(one, two);
   CHECK(one.total.mean_in_view == two.total.mean_in_view);
   CHECK(one.total.p95_gap_s == two.total.p95_gap_s);
@@ -140,15 +150,7 @@ TEST_CASE("coverage modes: with the daylight mask culled and exhaustive still ag
     check_same(a, b);
     CHECK(a.min_sun_elevation_deg.has_value());
     CHECK(a.total.percent_by_fold[0] > 0.1);
-    CoverageResult one, two;
-    {
-      tbb::global_control c(tbb::global_control::max_allowed_parallelism, 1);
-      one = evaluate_coverage(d);
-    }
-    {
-      tbb::global_control c(tbb::global_control::max_allowed_parallelism, 2);
-      two = evaluate_coverage(d);
-    }
+    const auto [one, two] = at_one_and_two_threads(d);
     check_same(one, two);
     check_same(one, a);
   }
