@@ -53,6 +53,27 @@ void pad_range(double& lo, double& hi) {
   }
 }
 
+// The data's extent on both axes (points with a non-finite coordinate skipped), and from it the plot's ranges.
+struct Extent {
+  double xlo = INFINITY, xhi = -INFINITY, ylo = INFINITY, yhi = -INFINITY;
+  void take(double x, double y) {
+    if (!std::isfinite(x) || !std::isfinite(y)) return;
+    xlo = std::min(xlo, x); xhi = std::max(xhi, x);
+    ylo = std::min(ylo, y); yhi = std::max(yhi, y);
+  }
+  // [0, 1] on both axes when nothing was taken; then the axes' explicit limits where set, and a degenerate
+  // range widened (pad_range).
+  Extent settled(const PlotAxes& a) const {
+    Extent e = *this;
+    if (!std::isfinite(e.xlo)) e = {0, 1, 0, 1};
+    e.xlo = a.x_min.value_or(e.xlo); e.xhi = a.x_max.value_or(e.xhi);
+    e.ylo = a.y_min.value_or(e.ylo); e.yhi = a.y_max.value_or(e.yhi);
+    pad_range(e.xlo, e.xhi);
+    pad_range(e.ylo, e.yhi);
+    return e;
+  }
+};
+
 // The figure's box: margins sized from the tick labels, axis labels, legend entries and title.
 struct Box {
   double left = 0, right = 0, top = 0, bottom = 0;
@@ -157,18 +178,10 @@ std::string marker(MarkerShape shape, double x, double y, const std::string& fil
 std::string series_colour(size_t k) { return palette[k % palette.size()]; }
 
 std::string line_plot_svg(const PlotAxes& a, const std::vector<Series>& series) {
-  double xlo = INFINITY, xhi = -INFINITY, ylo = INFINITY, yhi = -INFINITY;
+  Extent data;
   for (const auto& s : series)
-    for (size_t k = 0; k < s.x.size(); ++k) {
-      if (!std::isfinite(s.x[k]) || !std::isfinite(s.y[k])) continue;
-      xlo = std::min(xlo, s.x[k]); xhi = std::max(xhi, s.x[k]);
-      ylo = std::min(ylo, s.y[k]); yhi = std::max(yhi, s.y[k]);
-    }
-  if (!std::isfinite(xlo)) { xlo = 0; xhi = 1; ylo = 0; yhi = 1; }
-  xlo = a.x_min.value_or(xlo); xhi = a.x_max.value_or(xhi);
-  ylo = a.y_min.value_or(ylo); yhi = a.y_max.value_or(yhi);
-  pad_range(xlo, xhi);
-  pad_range(ylo, yhi);
+    for (size_t k = 0; k < s.x.size(); ++k) data.take(s.x[k], s.y[k]);
+  const auto [xlo, xhi, ylo, yhi] = data.settled(a);
   std::vector<std::string> labels;
   for (const auto& se : series) labels.push_back(se.label);
   const Box b = box_for(a, y_tick_labels(ylo, yhi, a.y_integer), legend_width(labels));
@@ -231,19 +244,10 @@ std::string bar_chart_svg(const PlotAxes& a, const std::vector<std::string>& lab
 
 std::string scatter_svg(const ScatterPlot& p) {
   const PlotAxes& a = p.axes;
-  double xlo = INFINITY, xhi = -INFINITY, ylo = INFINITY, yhi = -INFINITY;
-  auto take = [&](double x, double y) {
-    if (!std::isfinite(x) || !std::isfinite(y)) return;
-    xlo = std::min(xlo, x); xhi = std::max(xhi, x);
-    ylo = std::min(ylo, y); yhi = std::max(yhi, y);
-  };
-  for (const auto& q : p.points) take(q.x, q.y);
-  for (const auto& r : p.references) take(xlo, r.y);
-  if (!std::isfinite(xlo)) { xlo = 0; xhi = 1; ylo = 0; yhi = 1; }
-  xlo = a.x_min.value_or(xlo); xhi = a.x_max.value_or(xhi);
-  ylo = a.y_min.value_or(ylo); yhi = a.y_max.value_or(yhi);
-  pad_range(xlo, xhi);
-  pad_range(ylo, yhi);
+  Extent data;
+  for (const auto& q : p.points) data.take(q.x, q.y);
+  for (const auto& r : p.references) data.take(data.xlo, r.y);  // a threshold widens y only (needs a point)
+  const auto [xlo, xhi, ylo, yhi] = data.settled(a);
   // Legend column: marker entries, line entries, then the colour key (bar 14 px wide with tick values).
   std::vector<std::string> labels;
   for (const auto& e : p.legend) labels.push_back(e.label);
