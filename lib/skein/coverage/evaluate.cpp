@@ -177,7 +177,6 @@ CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan,
   buf.sats = T;
   const double search_rad = radius_search_rad(K, T);
   std::vector<int> nearest(exhaustive ? 0 : P * static_cast<size_t>(K), -1);
-  std::vector<long> settled_until(exhaustive ? 0 : P, -1);
   // Daylight at the target: the Sun turned into the Earth-fixed frame by the satellites' sidereal angle.
   DaylightMask daylight;
   if (st.spec.min_sun_elevation_deg) {
@@ -187,7 +186,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan,
     daylight.sin_min = std::sin(*st.spec.min_sun_elevation_deg * rad_per_deg);
   }
   const EvaluationContext sw{buf, smp, gm, geo, weight_q, K, T, search_rad, std::cos(search_rad), state, worst_cos, hist, fold_gap_start, nearest,
-                 settled_until, track_eps, r_apo, sat_sin_limit, st.spec.min_sun_elevation_deg ? &daylight : nullptr};
+                 track_eps, r_apo, sat_sin_limit, st.spec.min_sun_elevation_deg ? &daylight : nullptr};
   if (!exhaustive) buf.swept_reach_rad = reach_of(r_apo_max) + track_eps + tr.rate_max_rad_s * smp.step / 2.0 + 1e-9;
 
   tbb::enumerable_thread_specific<RowScratch> scratches;

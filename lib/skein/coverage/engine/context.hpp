@@ -36,7 +36,6 @@ struct EvaluationContext {
   std::vector<double>& hist;
   std::vector<double>& fold_gap_start;  // [p * (K - 1) + k - 2]: start of the open gap at fold k >= 2
   std::vector<int>& nearest;  // culled mode: the K nearest satellites when the point was last searched (-1: never)
-  std::vector<long>& settled_until;  // culled mode: the point cannot lower its worst k-th cosine up to this step
   double track_eps_rad = 0.0;               // deviation bound of a ground direction from its chord over a step
   const std::vector<double>& sat_r_apo_km;  // largest orbit radius of each satellite
   const std::vector<double>& sat_sin_limit; // exhaustive mode: cross-track limit of each satellite, any point

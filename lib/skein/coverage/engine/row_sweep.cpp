@@ -53,6 +53,22 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
   }
   const size_t n = row.point.size();
   const int K = sw.K;
+  // The points whose nearest satellites are looked at, step by step. A point the chord bound settles for some
+  // instants is put on the wake list of the first instant after them and not touched before; the others are
+  // due again at the next instant. So the per-step work of the nearest search follows the unsettled points,
+  // not the row. Each point is on at most one list at a time (wake_next links a list).
+  std::vector<int>& wake_head = scratch.wake_head;
+  std::vector<int>& wake_next = scratch.wake_next;
+  std::vector<std::uint32_t>& due = scratch.due;
+  std::vector<std::uint32_t>& next_due = scratch.next_due;
+  std::vector<std::uint32_t>& open_list = scratch.open_list;
+  wake_head.assign(static_cast<size_t>(c1 - c0 + 1), -1);
+  wake_next.assign(n, -1);
+  open.assign(n, 0);
+  top.assign(n * static_cast<size_t>(K), -2.0);
+  top_sat.assign(n * static_cast<size_t>(K), -1);
+  next_due.resize(n);
+  for (size_t i = 0; i < n; ++i) next_due[i] = static_cast<std::uint32_t>(i);
   for (long step = c0; step < c1; ++step) {
     const SatPos* sp1 = &buf.pos[buf.at(step, 0)];
     const SatAux* sx1 = &buf.by_lat_aux[buf.at(step, 0)];
@@ -196,33 +212,54 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
       }
       if (crossings.n > 0 || !scratch.hidden.empty()) {
         crossings.solve(t0, t1);
-        // Group the events by point (a counting sort, stable), then order each point's few events in time.
+        // Group the events by point, each point's few events in time (event_before). Few events against the
+        // row's points: one sort of the events by (point, time); many: a counting sort by point (stable), then
+        // each point's run in time. Both give every point the same sequence of (time, delta): events equal in
+        // both are interchangeable.
         const Event* events = crossings.event.data();
         const Event* events_end = events + crossings.n;
         const Event* extra = scratch.hidden.data();
         const Event* extra_end = extra + scratch.hidden.size();
-        start.assign(n + 1, 0);
-        for (const Event* e = events; e != events_end; ++e) ++start[e->point + 1];
-        for (const Event* e = extra; e != extra_end; ++e) ++start[e->point + 1];
-        for (size_t i = 0; i < n; ++i) start[i + 1] += start[i];
-        sorted.resize(crossings.n + scratch.hidden.size());
-        acc.events += static_cast<std::int64_t>(sorted.size());
-        for (const Event* e = events; e != events_end; ++e) sorted[start[e->point]++] = *e;
-        for (const Event* e = extra; e != extra_end; ++e) sorted[start[e->point]++] = *e;
-        // start[i] is now the end of point i's run.
-        std::uint32_t begin = 0;
-        for (size_t i = 0; i < n; ++i) {
-          const std::uint32_t end = start[i];
-          if (end == begin) continue;
-          Event* eb = sorted.data() + begin;
-          Event* ee = sorted.data() + end;
-          sort_short(eb, ee);
+        const size_t m = crossings.n + scratch.hidden.size();
+        acc.events += static_cast<std::int64_t>(m);
+        const auto apply_run = [&](std::uint32_t i, Event* eb, Event* ee) {
           const size_t p = static_cast<size_t>(row.point[i]);
           PointState& ps = sw.state[p];
           const int before = ps.count;
           apply_events(ps, sw.sums(p), eb, ee, t0, t1);
           add_covered(acc, ls, K, before, ps.count, sw.weight_q[p]);
-          begin = end;
+        };
+        if (m * 8 < n) {
+          sorted.assign(events, events_end);
+          sorted.insert(sorted.end(), extra, extra_end);
+          std::sort(sorted.begin(), sorted.end(), [](const Event& x, const Event& y) {
+            return x.point != y.point ? x.point < y.point : event_before(x, y);
+          });
+          for (size_t g0 = 0; g0 < m;) {
+            size_t g1 = g0 + 1;
+            while (g1 < m && sorted[g1].point == sorted[g0].point) ++g1;
+            apply_run(sorted[g0].point, sorted.data() + g0, sorted.data() + g1);
+            g0 = g1;
+          }
+        } else {
+          start.assign(n + 1, 0);
+          for (const Event* e = events; e != events_end; ++e) ++start[e->point + 1];
+          for (const Event* e = extra; e != extra_end; ++e) ++start[e->point + 1];
+          for (size_t i = 0; i < n; ++i) start[i + 1] += start[i];
+          sorted.resize(m);
+          for (const Event* e = events; e != events_end; ++e) sorted[start[e->point]++] = *e;
+          for (const Event* e = extra; e != extra_end; ++e) sorted[start[e->point]++] = *e;
+          // start[i] is now the end of point i's run.
+          std::uint32_t begin = 0;
+          for (size_t i = 0; i < n; ++i) {
+            const std::uint32_t end = start[i];
+            if (end == begin) continue;
+            Event* eb = sorted.data() + begin;
+            Event* ee = sorted.data() + end;
+            sort_short(eb, ee);
+            apply_run(static_cast<std::uint32_t>(i), eb, ee);
+            begin = end;
+          }
         }
       }
       // Daylight mask: the changes of daylight up to t_j of every point of the row, with or without events.
@@ -242,10 +279,12 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
     // the k-th nearest's, so when it is at least the worst so far for every k, the instant cannot lower it
     // and the point is settled. The other points look inside the search cap, then scan exactly where fewer
     // than K lie there, and remember the K found.
-    top.assign(n * static_cast<size_t>(K), -2.0);
-    top_sat.assign(n * static_cast<size_t>(K), -1);
-    open.assign(n, 1);
-    size_t open_points = n;
+    // The points due now: those due again after the last instant, and those whose skip ends here.
+    due.swap(next_due);
+    next_due.clear();
+    for (int i = wake_head[static_cast<size_t>(step - c0)]; i >= 0; i = wake_next[static_cast<size_t>(i)])
+      due.push_back(static_cast<std::uint32_t>(i));
+    open_list.clear();
     // A settled point also skips the next instants its margin provably covers: each satellite's unit vector
     // moves by a chord of at most `chord` per step, so a point's distance (chord) to its k-th nearest
     // satellite grows by at most that per step (the k-th smallest of functions that each move by at most
@@ -253,15 +292,13 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
     // within the chord of the worst cosine so far (which only grows), no instant can lower it, and those
     // instants are skipped, exactly as if each were found settled. 1e-9 absorbs rounding (chords are O(1)).
     const double chord = buf.step_chord_max;
-    for (size_t i = 0; i < n; ++i) {
+    for (const std::uint32_t i : due) {
       const size_t p = static_cast<size_t>(row.point[i]);
-      if (sw.settled_until[p] >= step) {
-        open[i] = 0;
-        --open_points;
+      const int* nb = &sw.nearest[p * static_cast<size_t>(K)];
+      if (nb[0] < 0) {
+        open_list.push_back(i);
         continue;
       }
-      const int* nb = &sw.nearest[p * static_cast<size_t>(K)];
-      if (nb[0] < 0) continue;
       double lower[max_fold_limit];
       std::fill(lower, lower + K, -2.0);
       for (int k = 0; k < K; ++k) insert_top(lower, K, cos_to(sw.geo[p], sp1[nb[k]]));
@@ -269,21 +306,42 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
       const double* wc = &sw.worst_cos[p * static_cast<size_t>(K)];
       bool settled = true;
       for (int k = 0; k < K; ++k) settled = settled && lower[k] >= wc[k];
-      if (settled) {
-        open[i] = 0;
-        --open_points;
-        if (chord > 0.0) {
-          double slack = 4.0;
-          for (int k = 0; k < K; ++k)
-            slack = std::min(slack, std::sqrt(std::max(0.0, 2.0 - 2.0 * wc[k])) - std::sqrt(std::max(0.0, 2.0 - 2.0 * lower[k])));
-          // Whole steps (truncation is the floor here: only positive counts are used). Within this buffer
-          // only: its chord bound says nothing about the next chunk's steps.
-          const double steps = std::min((slack - 1e-9) / chord, 1e6);
-          if (steps >= 1.0) sw.settled_until[p] = std::min(c1 - 1, step + static_cast<long>(steps));
-        }
+      if (!settled) {
+        open_list.push_back(i);
+        continue;
+      }
+      long until = step;
+      if (chord > 0.0) {
+        double slack = 4.0;
+        for (int k = 0; k < K; ++k)
+          slack = std::min(slack, std::sqrt(std::max(0.0, 2.0 - 2.0 * wc[k])) - std::sqrt(std::max(0.0, 2.0 - 2.0 * lower[k])));
+        // Whole steps (truncation is the floor here: only positive counts are used). Within this buffer
+        // only: its chord bound says nothing about the next chunk's steps.
+        const double steps = std::min((slack - 1e-9) / chord, 1e6);
+        if (steps >= 1.0) until = std::min(c1 - 1, step + static_cast<long>(steps));
+      }
+      if (until == step) {
+        next_due.push_back(i);
+      } else if (until + 1 < c1) {
+        const size_t w = static_cast<size_t>(until + 1 - c0);
+        wake_next[i] = wake_head[w];
+        wake_head[w] = static_cast<int>(i);
       }
     }
-    if (open_points == 0) continue;
+    if (open_list.empty()) continue;
+    int mid = -1;
+    const auto row_mid = [&]() {
+      if (mid < 0) {
+        const double* zs = &buf.by_lat_sin[buf.at(step, 0)];
+        mid = static_cast<int>(std::lower_bound(zs, zs + sw.T, row.sin_psi) - zs);
+      }
+      return mid;
+    };
+    for (const std::uint32_t i : open_list) {
+      open[i] = 1;
+      std::fill_n(&top[i * static_cast<size_t>(K)], K, -2.0);
+      std::fill_n(&top_sat[i * static_cast<size_t>(K)], K, -1);
+    }
     {
       const auto [a, b] = latitude_range(buf, step, row.psi, sw.search_rad + 1e-9);
       const double c = std::cos(std::min(pi, sw.search_rad + 1e-9));
@@ -302,19 +360,15 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
         for_window(row, x.lon, h, near);
       }
     }
-    int mid = -1;
-    for (size_t i = 0; i < n; ++i) {
-      if (!open[i]) continue;
+    for (const std::uint32_t i : open_list) {
+      open[i] = 0;
+      next_due.push_back(i);
       const size_t p = static_cast<size_t>(row.point[i]);
       double* tp = &top[i * static_cast<size_t>(K)];
       int* ts = &top_sat[i * static_cast<size_t>(K)];
       if (tp[K - 1] < sw.search_cos) {
         ++acc.fallbacks;
-        if (mid < 0) {
-          const double* zs = &buf.by_lat_sin[buf.at(step, 0)];
-          mid = static_cast<int>(std::lower_bound(zs, zs + sw.T, row.sin_psi) - zs);
-        }
-        acc.distance_tests += nearest_by_latitude(sw.geo[p], buf, step, K, tp, ts, mid);
+        acc.distance_tests += nearest_by_latitude(sw.geo[p], buf, step, K, tp, ts, row_mid());
       }
       std::copy(ts, ts + K, &sw.nearest[p * static_cast<size_t>(K)]);
       double* wc = &sw.worst_cos[p * static_cast<size_t>(K)];

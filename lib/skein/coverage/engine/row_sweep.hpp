@@ -27,6 +27,9 @@ struct RowScratch {
   std::vector<char> open;
   WindowCache cache;
   std::vector<Event> hidden;  // rises and sets of passes found between two instants, this step
+  // The nearest search's due points (row_sweep.cpp): wake lists by step, and the points due now and next.
+  std::vector<int> wake_head, wake_next;
+  std::vector<std::uint32_t> due, next_due, open_list;
 };
 
 // Culled mode: row number r of `rows_total` over the instants [c0, c1) of the buffer (row_sweep.cpp).
