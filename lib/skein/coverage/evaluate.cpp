@@ -155,10 +155,13 @@ CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan,
     const double full_pass_s = c_in <= 1.0 ? 2.0 * std::acos(c_in) / tr.rate_max_rad_s : 0.0;
     gm.roots_on_path = smp.step > full_pass_s / 4.0;
   }
+  std::vector<double> sat_widened_cos(static_cast<size_t>(T), -1.0);
   if (exhaustive) {
-    for (int s = 0; s < T; ++s)
-      sat_sin_limit[static_cast<size_t>(s)] =
-          cross_track_sin_limit(footprint_cosines(any, r_apo[static_cast<size_t>(s)] + 1e-6).outer, track_eps);
+    for (int s = 0; s < T; ++s) {
+      const double outer = footprint_cosines(any, r_apo[static_cast<size_t>(s)] + 1e-6).outer;
+      sat_sin_limit[static_cast<size_t>(s)] = cross_track_sin_limit(outer, track_eps);
+      sat_widened_cos[static_cast<size_t>(s)] = widened_footprint_cos(outer, track_eps);
+    }
   }
 
   // Instants per chunk: 64 (exhaustive) or culled_chunk, fewer when the satellite buffers would pass the budget.
@@ -186,7 +189,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan,
     daylight.sin_min = std::sin(*st.spec.min_sun_elevation_deg * rad_per_deg);
   }
   const EvaluationContext sw{buf, smp, gm, geo, weight_q, K, T, search_rad, std::cos(search_rad), state, worst_cos, hist, fold_gap_start, nearest,
-                 track_eps, r_apo, sat_sin_limit, st.spec.min_sun_elevation_deg ? &daylight : nullptr};
+                 track_eps, r_apo, sat_sin_limit, sat_widened_cos, st.spec.min_sun_elevation_deg ? &daylight : nullptr};
   if (!exhaustive) buf.swept_reach_rad = reach_of(r_apo_max) + track_eps + tr.rate_max_rad_s * smp.step / 2.0 + 1e-9;
 
   tbb::enumerable_thread_specific<RowScratch> scratches;

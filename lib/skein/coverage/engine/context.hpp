@@ -39,6 +39,7 @@ struct EvaluationContext {
   double track_eps_rad = 0.0;               // deviation bound of a ground direction from its chord over a step
   const std::vector<double>& sat_r_apo_km;  // largest orbit radius of each satellite
   const std::vector<double>& sat_sin_limit; // exhaustive mode: cross-track limit of each satellite, any point
+  const std::vector<double>& sat_widened_cos; // exhaustive mode: cos(outer angle + track deviation), any point
   const DaylightMask* daylight = nullptr;   // set: only lit coverage counts (coverage.min_sun_elevation_deg)
   PointSums sums(size_t p) const {
     return {&hist[p * in_view_bins], K > 1 ? &fold_gap_start[p * static_cast<size_t>(K - 1)] : nullptr, K,

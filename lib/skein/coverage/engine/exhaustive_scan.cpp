@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cassert>
 
+#include "skein/coverage/engine/hidden_pass.hpp"
 #include "skein/coverage/engine/margin.hpp"
 #include "skein/coverage/engine/nearest.hpp"
 #include "skein/coverage/engine/path_events.hpp"
@@ -62,10 +63,22 @@ void scan_point(const EvaluationContext& sw, size_t p, long c0, long c1, Partial
       hidden.insert(hidden.end(), crossings.event.begin(), crossings.event.begin() + static_cast<long>(crossings.n));
       {
         size_t a0 = 0, b0 = 0;
+        const SatPos* prev = &buf.pos[buf.at(step - 1, 0)];
         for (int s = 0; s < sw.T; ++s) {
           while (a0 < ps.vis.size() && ps.vis[a0] < s) ++a0;
           while (b0 < fresh.size() && fresh[b0] < s) ++b0;
           if ((a0 < ps.vis.size() && ps.vis[a0] == s) || (b0 < fresh.size() && fresh[b0] == s)) continue;
+          // Outside the footprint swept over the step (seen from both ends, hidden_pass.hpp) the pair cannot
+          // hold a pass: skipped before the path work. The row sweep's windows come from the same swept cap at
+          // each row's (narrower) outer angle, so every pair it tests is tested here too; 1e-9 keeps rounding
+          // on the side of testing.
+          {
+            const SatPos& u0 = prev[s];
+            const SatPos& u1 = sp[s];
+            const double c_w = swept_footprint_cos_from_widened(sw.sat_widened_cos[static_cast<size_t>(s)],
+                                                                u0.ux * u1.ux + u0.uy * u1.uy + u0.uz * u1.uz) - 1e-9;
+            if (cos_to(pg, u0) < c_w && cos_to(pg, u1) < c_w) continue;
+          }
           if (const auto pass = hidden_pass(pg, buf, step, s, sw.gm, sw.sat_sin_limit[static_cast<size_t>(s)], t0, t1)) {
             hidden.push_back({pass->rise_s, +1, 0});
             hidden.push_back({pass->set_s, -1, 0});

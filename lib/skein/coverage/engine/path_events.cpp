@@ -53,9 +53,8 @@ std::optional<HiddenPass> hidden_pass(const PointGeo& p, const PositionBuffer& b
   const SatPos& q0 = b.pos[b.at(j - 1, s)];
   const SatPos& q1 = b.pos[b.at(j, s)];
   if (sin_limit < 1.0) {
-    const double nx = q0.uy * q1.uz - q0.uz * q1.uy, ny = q0.uz * q1.ux - q0.ux * q1.uz, nz = q0.ux * q1.uy - q0.uy * q1.ux;
-    const double nn = std::sqrt(nx * nx + ny * ny + nz * nz);
-    if (nn > 1e-12 && std::abs(p.ux * nx + p.uy * ny + p.uz * nz) > sin_limit * nn) return std::nullopt;
+    const StepPole& n = b.step_pole[b.at(j, s)];  // u(t_{j-1}) x u(t_j), PositionBuffer
+    if (n.norm > 1e-12 && std::abs(p.ux * n.nx + p.uy * n.ny + p.uz * n.nz) > sin_limit * n.norm) return std::nullopt;
   }
   // The rate test first: most candidates end here, before the path is built.
   const MarginSample a = true_margin(p, q0, b.vel[b.at(j - 1, s)], g), c = true_margin(p, q1, b.vel[b.at(j, s)], g);

@@ -22,6 +22,7 @@ void fill_positions(PositionBuffer& buf, const std::vector<SecularOrbit>& orbits
     buf.by_lat_aux.resize(cells);
     buf.by_lat_prev.resize(cells);
   }
+  buf.step_pole.resize(cells);
   buf.reach_rad.assign(static_cast<size_t>(buf.count), 0.0);
   buf.moved_rad.assign(static_cast<size_t>(buf.count), 0.0);
   std::vector<double> chord(static_cast<size_t>(buf.count), 0.0);
@@ -56,6 +57,18 @@ void fill_positions(PositionBuffer& buf, const std::vector<SecularOrbit>& orbits
         const SatAux& x = buf.aux[base + static_cast<size_t>(ord[k])];
         buf.by_lat_sin[base + static_cast<size_t>(k)] = x.sin_psi;
         buf.by_lat_aux[base + static_cast<size_t>(k)] = x;
+      }
+    }
+  });
+  // The poles of every satellite's step arc (hidden_pass in path_events.cpp), both modes.
+  tbb::parallel_for(tbb::blocked_range<long>(1, std::max(1L, buf.count)), [&](const tbb::blocked_range<long>& r) {
+    for (long l = r.begin(); l < r.end(); ++l) {
+      const long step = buf.first + l;
+      for (int s = 0; s < T; ++s) {
+        const SatPos& q0 = buf.pos[buf.at(step - 1, s)];
+        const SatPos& q1 = buf.pos[buf.at(step, s)];
+        const double nx = q0.uy * q1.uz - q0.uz * q1.uy, ny = q0.uz * q1.ux - q0.ux * q1.uz, nz = q0.ux * q1.uy - q0.uy * q1.ux;
+        buf.step_pole[buf.at(step, s)] = {nx, ny, nz, std::sqrt(nx * nx + ny * ny + nz * nz)};
       }
     }
   });

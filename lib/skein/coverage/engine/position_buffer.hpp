@@ -11,6 +11,11 @@
 namespace skein::coverage_engine {
 
 // Satellite positions (Earth-fixed) for a window of sample instants.
+// The pole of a satellite's step arc (see PositionBuffer::step_pole).
+struct StepPole {
+  double nx, ny, nz, norm;
+};
+
 struct PositionBuffer {
   long first = 0, count = 0;
   int sats = 0;
@@ -28,6 +33,11 @@ struct PositionBuffer {
   // the buffer (l >= 1). A ground point's k-th largest cosine to the satellites moves by at most this much
   // per step in chord terms (row_sweep.cpp, "settled").
   double step_chord_max = 0.0;
+  // Both modes: per satellite and instant t_j (j after the buffer's first), n = u(t_{j-1}) x u(t_j) and |n|,
+  // the pole of the great circle through the satellite's ground directions at the step's two instants, for the
+  // hidden-pass cross-track test (path_events.cpp). Computed once per satellite and step instead of once per
+  // (point, satellite, step); the same numbers for both modes, so both make the same decisions.
+  std::vector<StepPole> step_pole;  // [local * sats + s]; unset for the buffer's first instant
   // Culled mode only: per instant, the satellites sorted by geocentric latitude.
   std::vector<int> by_lat;
   std::vector<double> by_lat_sin;   // sin of the latitude, same order (contiguous for the binary searches)
