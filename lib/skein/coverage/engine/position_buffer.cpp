@@ -25,7 +25,6 @@ void fill_positions(PositionBuffer& buf, const std::vector<SecularOrbit>& orbits
   buf.step_pole.resize(cells);
   buf.reach_rad.assign(static_cast<size_t>(buf.count), 0.0);
   buf.moved_rad.assign(static_cast<size_t>(buf.count), 0.0);
-  std::vector<double> chord(static_cast<size_t>(buf.count), 0.0);
   tbb::parallel_for(tbb::blocked_range<long>(0, buf.count), [&](const tbb::blocked_range<long>& r) {
     for (long l = r.begin(); l < r.end(); ++l) {
       const long step = buf.first + l;
@@ -80,14 +79,7 @@ void fill_positions(PositionBuffer& buf, const std::vector<SecularOrbit>& orbits
     for (long l = r.begin(); l < r.end(); ++l) {
       const long step = buf.first + l;
       const size_t base = buf.at(step, 0);
-      double moved = 0.0, longest = 0.0;
-      for (int s = 0; s < T; ++s) {
-        const SatPos& a = buf.pos[buf.at(step - 1, s)];
-        const SatPos& b = buf.pos[buf.at(step, s)];
-        const double dx = b.ux - a.ux, dy = b.uy - a.uy, dz = b.uz - a.uz;
-        longest = std::max(longest, dx * dx + dy * dy + dz * dz);
-      }
-      chord[static_cast<size_t>(l)] = std::sqrt(longest);
+      double moved = 0.0;
       for (int k = 0; k < T; ++k) {
         const int s = buf.by_lat[base + static_cast<size_t>(k)];
         const SatAux& x1 = buf.by_lat_aux[base + static_cast<size_t>(k)];
@@ -98,7 +90,6 @@ void fill_positions(PositionBuffer& buf, const std::vector<SecularOrbit>& orbits
       buf.moved_rad[static_cast<size_t>(l)] = moved + 1e-9;
     }
   });
-  buf.step_chord_max = chord.empty() ? 0.0 : *std::max_element(chord.begin(), chord.end());
 
 }
 

@@ -29,10 +29,6 @@ struct PositionBuffer {
   // during the step (the outer angle at the largest orbit radius, plus the chord's half and the track's
   // deviation bound; hidden_pass.hpp). Constant over the run.
   double swept_reach_rad = 0.0;
-  // Culled mode: the largest chord |u_s(t_l) - u_s(t_{l-1})| of any satellite's unit vector over any step of
-  // the buffer (l >= 1). A ground point's k-th largest cosine to the satellites moves by at most this much
-  // per step in chord terms (row_sweep.cpp, "settled").
-  double step_chord_max = 0.0;
   // Both modes: per satellite and instant t_j (j after the buffer's first), n = u(t_{j-1}) x u(t_j) and |n|,
   // the pole of the great circle through the satellite's ground directions at the step's two instants, for the
   // hidden-pass cross-track test (path_events.cpp). Computed once per satellite and step instead of once per

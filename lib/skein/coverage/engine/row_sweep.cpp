@@ -53,10 +53,10 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
   }
   const size_t n = row.point.size();
   const int K = sw.K;
-  // The points whose nearest satellites are looked at, step by step. A point the chord bound settles for some
-  // instants is put on the wake list of the first instant after them and not touched before; the others are
-  // due again at the next instant. So the per-step work of the nearest search follows the unsettled points,
-  // not the row. Each point is on at most one list at a time (wake_next links a list).
+  // The points whose nearest satellites are looked at, step by step. A point its remembered satellites settle
+  // for some instants is put on the wake list of the first instant after them and not touched before; the
+  // others are due again at the next instant. So the per-step work of the nearest search follows the
+  // unsettled points, not the row. Each point is on at most one list at a time (wake_next links a list).
   std::vector<int>& wake_head = scratch.wake_head;
   std::vector<int>& wake_next = scratch.wake_next;
   std::vector<std::uint32_t>& due = scratch.due;
@@ -285,13 +285,12 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
     for (int i = wake_head[static_cast<size_t>(step - c0)]; i >= 0; i = wake_next[static_cast<size_t>(i)])
       due.push_back(static_cast<std::uint32_t>(i));
     open_list.clear();
-    // A settled point also skips the next instants its margin provably covers: each satellite's unit vector
-    // moves by a chord of at most `chord` per step, so a point's distance (chord) to its k-th nearest
-    // satellite grows by at most that per step (the k-th smallest of functions that each move by at most
-    // `chord` moves by at most `chord`). While the bound from the remembered satellites plus the growth stays
-    // within the chord of the worst cosine so far (which only grows), no instant can lower it, and those
-    // instants are skipped, exactly as if each were found settled. 1e-9 absorbs rounding (chords are O(1)).
-    const double chord = buf.step_chord_max;
+    // A settled point runs forward with the same remembered satellites: at each later instant of the buffer the
+    // k-th largest of their cosines is again a lower bound of the k-th nearest's, so while it stays at or
+    // above the worst so far for every k, that instant cannot lower the worst and is skipped (exactly: the same
+    // numbers as if it were checked there). One dot product per remembered satellite and instant, in a tight
+    // loop over the buffer; the point is due again at the first instant the remembered satellites do not
+    // settle, or at the next buffer.
     for (const std::uint32_t i : due) {
       const size_t p = static_cast<size_t>(row.point[i]);
       const int* nb = &sw.nearest[p * static_cast<size_t>(K)];
@@ -299,31 +298,36 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
         open_list.push_back(i);
         continue;
       }
-      double lower[max_fold_limit];
-      std::fill(lower, lower + K, -2.0);
-      for (int k = 0; k < K; ++k) insert_top(lower, K, cos_to(sw.geo[p], sp1[nb[k]]));
-      acc.distance_tests += K;
+      const PointGeo& pg = sw.geo[p];
       const double* wc = &sw.worst_cos[p * static_cast<size_t>(K)];
-      bool settled = true;
-      for (int k = 0; k < K; ++k) settled = settled && lower[k] >= wc[k];
-      if (!settled) {
+      long j = step;
+      if (K == 1) {
+        // One satellite: its cosine at each instant against the worst, walking its column of the buffer.
+        const double w0 = wc[0];
+        const SatPos* column = buf.pos.data();
+        size_t at = buf.at(step, nb[0]);
+        const size_t stride = static_cast<size_t>(sw.T);
+        while (j < c1 && cos_to(pg, column[at]) >= w0) {
+          ++j;
+          at += stride;
+        }
+      } else {
+        const auto settles = [&](long l) {
+          const SatPos* spl = &buf.pos[buf.at(l, 0)];
+          double lower[max_fold_limit];
+          std::fill(lower, lower + K, -2.0);
+          for (int k = 0; k < K; ++k) insert_top(lower, K, cos_to(pg, spl[nb[k]]));
+          for (int k = 0; k < K; ++k)
+            if (lower[k] < wc[k]) return false;
+          return true;
+        };
+        while (j < c1 && settles(j)) ++j;
+      }
+      acc.distance_tests += static_cast<std::int64_t>(K) * (std::min(j, c1 - 1) - step + 1);
+      if (j == step) {
         open_list.push_back(i);
-        continue;
-      }
-      long until = step;
-      if (chord > 0.0) {
-        double slack = 4.0;
-        for (int k = 0; k < K; ++k)
-          slack = std::min(slack, std::sqrt(std::max(0.0, 2.0 - 2.0 * wc[k])) - std::sqrt(std::max(0.0, 2.0 - 2.0 * lower[k])));
-        // Whole steps (truncation is the floor here: only positive counts are used). Within this buffer
-        // only: its chord bound says nothing about the next chunk's steps.
-        const double steps = std::min((slack - 1e-9) / chord, 1e6);
-        if (steps >= 1.0) until = std::min(c1 - 1, step + static_cast<long>(steps));
-      }
-      if (until == step) {
-        next_due.push_back(i);
-      } else if (until + 1 < c1) {
-        const size_t w = static_cast<size_t>(until + 1 - c0);
+      } else if (j < c1) {
+        const size_t w = static_cast<size_t>(j - c0);
         wake_next[i] = wake_head[w];
         wake_head[w] = static_cast<int>(i);
       }
