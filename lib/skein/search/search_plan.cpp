@@ -60,9 +60,13 @@ PlannedLayout plan_one(const Search& search, const Layout& layout) {
   }
   if (const auto s = cap_screen(design, space.requirement); s && s->rules_out()) {
     p.skip = SkipReason::cap_area;
-    p.bound = fmt::format("the caps of {} satellites hold at most {:.6g} of the grid's weight at once, below the "
+    p.bound = fmt::format("the caps of {} satellites hold at most {:.6g} of the grid's weight {}, below the "
                           "{:.6g} that fold {} at {:.6g} % needs",
-                          m.design_satellites, s->supply, s->need, space.requirement.fold, s->threshold_percent);
+                          m.design_satellites, s->supply,
+                          s->time_average ? "on time average (each cap counted only while its sub-satellite latitude "
+                                            "is within reach of the grid)"
+                                          : "at once",
+                          s->need, space.requirement.fold, s->threshold_percent);
   }
   return p;
 }
