@@ -20,17 +20,32 @@ double prefix_span_s(double span_s, double step_s, double share, double at_least
 }
 
 Grid sub_grid(const Grid& grid, double spacing_deg, double first_row_lat_deg, int stride) {
-  if (stride <= 1 || grid.kind == GridKind::sites || !(spacing_deg > 0.0)) return grid;
-  Grid out;
-  out.kind = grid.kind;
-  out.spacing_deg = grid.spacing_deg;
+  if (stride <= 1 || grid.kind == GridKind::sites || !(spacing_deg > 0.0) || grid.points.empty()) return grid;
   const long m = stride, half = stride / 2;
-  for (const GridPoint& p : grid.points) {
+  std::vector<char> keep(grid.points.size(), 0);
+  // The grid's extreme points, which the evaluator's grid-wide choices read (coverage/evaluate.cpp: the
+  // smallest and largest radius and the largest deflection of the vertical decide the outer footprint row
+  // and so the crossing-time method); kept so those choices, and each kept point's figures, are the grid's.
+  size_t lowest = 0, highest = 0, deflected = 0;
+  double r_lo = 1e300, r_hi = -1.0, defl = -1.0;
+  for (size_t i = 0; i < grid.points.size(); ++i) {
+    const GridPoint& p = grid.points[i];
+    const double len = p.r_km.norm();
+    const double d = std::acos(std::clamp(p.up.dot(p.r_km.normalized()), -1.0, 1.0));
+    if (len < r_lo) r_lo = len, lowest = i;
+    if (len > r_hi) r_hi = len, highest = i;
+    if (d > defl) defl = d, deflected = i;
     if (!p.cell) continue;
     const long row = std::lround((p.cell->lat_min_deg - first_row_lat_deg) / spacing_deg);
     const long col = std::lround((p.cell->lon_min_deg + 180.0) / spacing_deg);
-    if (row % m == half && col % m == half) out.points.push_back(p);
+    keep[i] = row % m == half && col % m == half;
   }
+  keep[lowest] = keep[highest] = keep[deflected] = 1;
+  Grid out;
+  out.kind = grid.kind;
+  out.spacing_deg = grid.spacing_deg;
+  for (size_t i = 0; i < grid.points.size(); ++i)
+    if (keep[i]) out.points.push_back(grid.points[i]);
   return out;
 }
 
@@ -85,7 +100,8 @@ bool screen_applies(const Sweep& space, const Design& design, const ScreenSettin
   const bool subset = s.grid_stride > 1;
   for (const Threshold& t : space.requirement.thresholds) {
     if (t.figure == RequirementFigure::max_gap_s && (prefix || subset)) return true;
-    if (t.figure == RequirementFigure::worst_instant_percent && prefix) return true;
+    if (t.figure == RequirementFigure::worst_instant_percent && prefix && !design.coverage.min_sun_elevation_deg)
+      return true;
     if (t.figure == RequirementFigure::worst_point_percent && subset) return true;
   }
   return false;
@@ -116,8 +132,10 @@ std::string proven_failure(const Sweep& space, const CoarseRun& run, ScreenOutco
                                                     "worst point is one of the grid's points"
                          : run.prefix             ? "a prefix's gaps lie inside the span's"
                                                   : "the sub-grid's worst point is one of the grid's points");
+    // Not with a daylight mask: the prefix's search for a change of daylight stops at its end, so a change
+    // may be placed up to 1e-4 s differently (engine/daylight.hpp), which could flip a point at an instant.
     if (t.figure == RequirementFigure::worst_instant_percent && run.prefix && !run.subset &&
-        x < t.value - screen_percent_allowance)
+        !r.min_sun_elevation_deg && x < t.value - screen_percent_allowance)
       return fmt::format("{}, worst_instant_percent at fold {} is {:.4f} % < {:g} % - {:g} allowance; the full "
                          "figure is at most this (the prefix's instants are some of the span's)",
                          where, fold, x, t.value, screen_percent_allowance);
@@ -150,7 +168,7 @@ ScreenOutcome screen_layout(const Sweep& space, const Layout& layout, const Scre
   std::vector<std::pair<std::optional<double>, int>> runs;
   if (gap) runs.push_back({span, stride});
   if (point && stride > 1 && !(gap && !span)) runs.push_back({std::nullopt, stride});
-  if (instant && span && !(gap && stride <= 1)) runs.push_back({span, 1});
+  if (instant && span && !design.coverage.min_sun_elevation_deg && !(gap && stride <= 1)) runs.push_back({span, 1});
   const CoverageOptions options = sweep_coverage_options(space, evaluation);
   for (const auto& [run_span, run_stride] : runs) {
     if (!run_span && run_stride <= 1) continue;  // the full evaluation itself

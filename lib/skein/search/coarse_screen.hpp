@@ -12,23 +12,29 @@
 //     it was open at P). So every point's longest gap over the prefix is at most its longest over the span, and
 //     max over points of the prefix's <= the span's: a prefix max gap above the threshold fails the span.
 //   - worst_instant_percent: the prefix's instants are a subset of the span's, so the least covered share over
-//     them is at least the span's least: a prefix worst instant below the threshold fails the span.
+//     them is at least the span's least: a prefix worst instant below the threshold fails the span. Not used
+//     with a daylight mask (min_sun_elevation_deg): the search for a change of daylight stops at the prefix's
+//     end, so the prefix may place a change up to its 1e-4 s tolerance apart from the full run, which moves a
+//     gap by that much (under the gap allowance) but could flip a point at an instant.
 //   Not bounded by a prefix: time averages (percent_covered, worst_point_percent, p95_gap_s, mean response).
 //
 //   Sub-grid: the cells in every m-th row and column (m odd; the cells whose row and column index are m/2
-//   modulo m, the centres of a grid of spacing m s when m s divides the extent). Each point's figures depend only
-//   on that point and the satellites, so its figures on the sub-grid are its figures on the grid.
+//   modulo m, the centres of a grid of spacing m s when m s divides the extent), plus the grid's extreme points
+//   (smallest and largest radius, largest deflection of the vertical), which decide the evaluator's grid-wide
+//   choices (the outer footprint row and with it the crossing-time method). Each point's timeline depends
+//   only on that point, the satellites and those choices, so its figures on the sub-grid are its figures on
+//   the grid.
 //   - max_gap_s (the worst point's longest gap): the max over a subset is at most the max over the grid.
 //   - worst_point_percent (the least-covered point's percent): the min over a subset is at least the grid's.
 //   Not bounded by a sub-grid: area-weighted figures (percent_covered, worst_instant_percent, p95_gap_s, mean
 //   response), which change with the weights. A requirement on those alone is never screened; the screen does
 //   not use coarse figures to reorder candidates either (the cost order is the search's).
 //
-// Both together (prefix span over the sub-grid) bound max_gap_s the same way. The engine finds a crossing time
-// to well under 10 ms (coverage/evaluate.cpp, the cubic's error) and a sub-grid run may pick the other root
-// finder where the grid's extreme radii decide it, so the same point's figures may differ at that level between
-// the coarse and the full run: a skip needs the coarse figure past the threshold by a stated allowance
-// (screen_gap_allowance_s, screen_percent_allowance), checked in tests/search/coarse_screen_test.cpp.
+// Both together (prefix span over the sub-grid) bound max_gap_s the same way. A skip still needs the coarse
+// figure past the threshold by a stated allowance (screen_gap_allowance_s, screen_percent_allowance), a margin
+// for what the argument above does not cover to the last bit (gaps are stored as floats; the culling of
+// candidate pairs, conservative by construction, differs between the runs); measured in
+// tests/search/coarse_screen_test.cpp, the same point's figures agree exactly.
 #include <optional>
 #include <string>
 
@@ -48,7 +54,8 @@ constexpr double screen_percent_allowance = 0.01;  // a coarse percent must fall
 double prefix_span_s(double span_s, double step_s, double share, double at_least_s = 0.0);
 
 // The sub-grid of a cell grid (global, band, region): the cells whose row and column index (counted from the
-// grid's first row, and from -180 deg) are stride / 2 modulo stride. Sites grids and stride 1: the grid itself.
+// grid's first row, and from -180 deg) are stride / 2 modulo stride, and the grid's extreme points (above), in
+// grid order. Sites grids and stride 1: the grid itself.
 Grid sub_grid(const Grid& grid, double spacing_deg, double first_row_lat_deg, int stride);
 
 // The coverage of `design` (the sweep's coverage options) over the prefix span `span_s` (none: the design's)
