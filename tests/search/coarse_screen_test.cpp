@@ -126,3 +126,24 @@ TEST_CASE("coarse screen: prefix and sub-grid figures bound the full figures on 
                  << " s, percent " << worst_percent_diff);
   }
 }
+
+TEST_CASE("coarse screen: the search file's screen block") {
+  // No screen key: off. `screen: {}`: on with the defaults (a quarter of the span, stride 3). Explicit values:
+  // as written (the screened regional case: 0.25 and 3; the plain regional case has none).
+  const Search plain = read_search_file(cases + "regional.yaml");
+  CHECK_FALSE(plain.settings.screen.enabled);
+  const Search defaults = read_search_file(cases + "screened-global.yaml");
+  CHECK(defaults.settings.screen.enabled);
+  CHECK(defaults.settings.screen.span_share == 0.25);
+  CHECK(defaults.settings.screen.grid_stride == 3);
+  const Search given = read_search_file(cases + "screened-regional.yaml");
+  CHECK(given.settings.screen.enabled);
+  CHECK(given.settings.screen.span_share == 0.25);
+  CHECK(given.settings.screen.grid_stride == 3);
+  // screen_applies: the regional case's max_gap_s threshold with a prefix of twice 5400 s inside its 6 h span.
+  const LayoutSet set = expand_layouts(given.space, 100000);
+  const Design design = layout_design(given.space, set.layouts.front());
+  CHECK(screen_prefix_s(given.space, design, given.settings.screen) == 10800.0);
+  CHECK(screen_applies(given.space, design, given.settings.screen));
+  CHECK_FALSE(screen_applies(plain.space, design, plain.settings.screen));
+}
