@@ -71,9 +71,10 @@ void run(Options opt) {
     layouts = static_cast<double>(ls.layouts.size());
     settled = static_cast<double>(p.skipped_budget + p.skipped_cap_area);
     print_stderr(fmt::format("search {}: {} layouts, {} skipped by the budget, {} by the cap-area bound, {} candidates "
-                             "in cost order ({} resumed){}\n",
+                             "in cost order ({} resumed){}{}\n",
                              s.space.name, ls.layouts.size(), p.skipped_budget, p.skipped_cap_area, p.order.size(),
-                             resumed, ranks > 1 ? fmt::format(" over {} ranks", ranks) : ""));
+                             resumed, ranks > 1 ? fmt::format(" over {} ranks", ranks) : "",
+                             s.settings.screen.enabled ? "; each screened first on a prefix span and a sub-grid" : ""));
     bar = std::make_unique<Progress>(
         "search",
         [&] {

@@ -3,7 +3,8 @@
 skein's code: the minimum over the sweep's results.jsonl of (costs in order, the requirement figure best first,
 the layout index) among the rows that are evaluated and meet the requirement, as README "The answer and the two
 fronts" states the sweep's rule. Also checks the record: every layout of the space once; every layout skipped by
-the budget or the cap-area bound fails the requirement in the sweep (the bound was safe); every layout skipped by
+the budget, the cap-area bound or the coarse screen fails the requirement in the sweep (the bound was safe; for the
+screen, the sweep's own figure lies on the side of the coarse figure the bound states, within the allowance); every layout skipped by
 cost order ranks after the optimum by its costs alone; the runners-up are the next passing layouts of the same order; every evaluated layout has the sweep's verdict and figure
 (exactly); at most MAX_SHARE of the layouts evaluated.
 The requirement figure is the one answer.json names beside the optimum; percent figures rank higher first, the
@@ -41,6 +42,7 @@ runners = [r["layout"] for r in answer["runners_up"]]
 assert runners == ranked[1:1 + len(runners)], f"runners-up {runners}, brute force {ranked[1:1 + len(runners)]}"
 assert len(record) == len(rows) == answer["layouts"], (len(record), len(rows), answer["layouts"])
 evaluated = 0
+screened = 0
 for line in record:
     r = rows[line["layout"]]
     assert costs(r) == tuple(line["costs"][c] for c in cost_names), (line, costs(r))
@@ -51,10 +53,21 @@ for line in record:
             assert line[figure] == r[figure], (line, r[figure])
     elif line["reason"] in ("budget", "cap-area bound"):
         assert r["meets_requirement"] != "yes", f"layout {line['layout']} skipped by {line['reason']} meets the requirement"
+    elif line["reason"] in ("prefix span", "sub-grid", "prefix span and sub-grid"):
+        # The coarse screen: the layout fails in the sweep, and the one-sided bound held on the sweep's own
+        # figure (a coarse max gap at most the full one; a coarse worst instant or worst point at least the full one).
+        screened += 1
+        assert r["meets_requirement"] != "yes", f"layout {line['layout']} skipped by the screen meets the requirement"
+        f, v = line["coarse"]["figure"], line["coarse"]["value"]
+        if f == "max_gap_s":
+            assert r[f] >= v - 1.0, (line, r[f])
+        else:
+            assert r[f] <= v + 0.01, (line, r[f])
     else:
         assert line["reason"] == "cost order", line
         assert costs(r) > costs(rows[got]), f"layout {line['layout']} skipped by cost order does not cost more"
 assert evaluated == answer["evaluated"], (evaluated, answer["evaluated"])
+assert screened == answer["skipped"].get("screen", 0), (screened, answer["skipped"])
 assert evaluated <= max_share * len(rows), f"{evaluated} of {len(rows)} layouts evaluated, above {max_share}"
 print(f"optimum {got} = brute force {brute}, runners-up {runners}; {evaluated} of {len(rows)} layouts evaluated "
       f"({100.0 * evaluated / len(rows):.1f} %); skipped {answer['skipped']}")

@@ -14,11 +14,24 @@ SearchSettings read_settings(const std::string& path, const YAML::Node& root) {
   SearchSettings s;
   if (!root.IsMap() || !root["search"]) return s;
   const yaml::MapReader top(path, root, "", {"name", "base", "shell", "coverage", "axes", "requirement", "cost", "search"});
-  const yaml::MapReader m = top.map("search", {"batch", "runners_up"});
+  const yaml::MapReader m = top.map("search", {"batch", "runners_up", "screen"});
   if (m.has("batch"))
     s.batch = static_cast<size_t>(m.integer("batch", 1, 10000, "the layouts evaluated together"));
   if (m.has("runners_up"))
     s.runners_up = static_cast<size_t>(m.integer("runners_up", 0, 1000, "the runners-up to list"));
+  if (m.has("screen")) {
+    const yaml::MapReader c = m.map("screen", {"span_share", "grid_stride"});
+    s.screen.enabled = true;
+    if (c.has("span_share"))
+      s.screen.span_share = c.number("span_share", 0.0, 0.9, "the share of the span screened first (0: no prefix)");
+    if (c.has("grid_stride")) {
+      s.screen.grid_stride = static_cast<int>(c.integer("grid_stride", 1, 15, "the sub-grid's stride (1: none)"));
+      if (s.screen.grid_stride % 2 == 0)
+        c.fail(c.node("grid_stride"), c.path_of("grid_stride"),
+               fmt::format("{} is even; expected an odd stride (1, 3, 5 ...): the sub-grid's cells are the middle "
+                           "ones of each stride by stride block", s.screen.grid_stride));
+    }
+  }
   return s;
 }
 

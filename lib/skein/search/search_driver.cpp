@@ -10,6 +10,7 @@
 #include <thread>
 
 #include <fmt/format.h>
+#include <tbb/parallel_for.h>
 
 #include "skein/error.hpp"
 #include "skein/io/atomic_write.hpp"
@@ -34,10 +35,11 @@ RowSummary summary_of(const Sweep& space, const std::string& row) {
 
 // The status after the batches before position `through` of the cost order.
 SearchStatus status_of(const Search& search, const SearchPlan& plan, const std::map<size_t, RowSummary>& sums,
-                       const SearchAnswer& a) {
+                       const SearchAnswer& a, size_t screened) {
   SearchStatus s;
   s.candidates = plan.order.size();
-  s.evaluated = sums.size();
+  s.screened = screened;
+  s.evaluated = sums.size() - screened;
   s.open_from = a.settled ? a.decided_through : a.open_from;
   const auto ranked = meeting_in_rank_order(search, sums);
   if (!ranked.empty()) s.best = ranked.front();
@@ -95,10 +97,20 @@ SearchRunResult run_search(const SearchRunOptions& options, RankGroup& group, co
   while (true) {
     std::string command = "go";
     if (rank == 0) {
-      for (size_t p = position > batch ? position - batch : 0; p < std::min(position, plan.order.size()); ++p)
-        if (!sums.count(plan.order[p])) sums.emplace(plan.order[p], summary_of(space, rows.at(plan.order[p])));
+      for (size_t p = position > batch ? position - batch : 0; p < std::min(position, plan.order.size()); ++p) {
+        const size_t i = plan.order[p];
+        if (sums.count(i)) continue;
+        if (result.screened.count(i)) {
+          RowSummary ruled_out;  // the screen proved it fails: it never meets
+          ruled_out.layout = i;
+          ruled_out.costs = plan.layouts[i].costs;
+          sums.emplace(i, ruled_out);
+        } else {
+          sums.emplace(i, summary_of(space, rows.at(i)));
+        }
+      }
       result.answer = settle_answer(search, plan, sums);
-      if (position > 0 && hooks.batch_done) hooks.batch_done(status_of(search, plan, sums, result.answer));
+      if (position > 0 && hooks.batch_done) hooks.batch_done(status_of(search, plan, sums, result.answer, result.screened.size()));
       if (result.answer.settled)
         command = "stop";
       else if (options.stop_after > 0 && fresh >= options.stop_after)
@@ -111,6 +123,33 @@ SearchRunResult run_search(const SearchRunOptions& options, RankGroup& group, co
     for (size_t p = position; p < std::min(position + batch, plan.order.size()); ++p)
       if (journaled.finished[plan.order[p]] == '0') pending.push_back(plan.order[p]);
     position += batch;
+    if (search.settings.screen.enabled) {
+      std::string ruled_out;  // rank 0's screen of the pending layouts: the indices it rules out
+      if (rank == 0) {
+        std::vector<ScreenOutcome> outcomes(pending.size());
+        tbb::parallel_for(size_t{0}, pending.size(), [&](size_t q) {
+          outcomes[q] = screen_layout(space, set.layouts[pending[q]], search.settings.screen, eval);
+        });
+        for (size_t q = 0; q < pending.size(); ++q) {
+          result.coarse_runs += outcomes[q].coarse_runs;
+          if (!outcomes[q].rules_out) continue;
+          result.screened.emplace(pending[q], outcomes[q]);
+          ruled_out += fmt::format("{} ", pending[q]);
+        }
+      }
+      group.broadcast_from_root(ruled_out);
+      std::set<size_t> out;
+      size_t start = 0;
+      while (start < ruled_out.size()) {
+        const size_t end = ruled_out.find(' ', start);
+        out.insert(static_cast<size_t>(std::stoull(ruled_out.substr(start, end - start))));
+        start = end + 1;
+      }
+      std::vector<size_t> kept;
+      for (size_t i : pending)
+        if (!out.count(i)) kept.push_back(i);
+      pending = std::move(kept);
+    }
     const std::vector<size_t> share = round_robin_share(pending, rank, ranks);
     if (rank != 0) {
       send_share(space, set, share, group, eval, hooks.ending_all);
@@ -127,9 +166,10 @@ SearchRunResult run_search(const SearchRunOptions& options, RankGroup& group, co
   }
   // Only rows of the batches run take part (a journal never holds others: it is this search's, same file).
   std::map<size_t, std::string> used;
-  for (const auto& [i, s] : sums) used.emplace(i, rows.at(i));
+  for (const auto& [i, s] : sums)
+    if (!result.screened.count(i)) used.emplace(i, rows.at(i));
   rows = std::move(used);
-  result.outputs = assemble_search_outputs(search, set, plan, rows, result.answer);
+  result.outputs = assemble_search_outputs(search, set, plan, rows, result.answer, result.screened);
   for (const auto& [name, text] : result.outputs.files()) {
     write_file_atomic((std::filesystem::path(result.dir) / name).string(), *text);
     result.written.push_back(name);

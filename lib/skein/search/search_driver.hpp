@@ -7,11 +7,15 @@
 // or stop; the pending layouts of a batch are shared round-robin, rows go to rank 0, which journals them. The
 // batches and the stopping test use only the file and finished rows, so the layouts evaluated, the answer and
 // the record do not depend on the thread or rank count, nor on a kill and resume. Nothing is printed.
+// With the coarse screen (coarse_screen.hpp), rank 0 screens a batch's pending layouts first (in parallel over
+// threads) and tells every rank which ones it ruled out; only the others are evaluated in full. A screened
+// layout is not journaled: a resumed run screens it again, with the same result (the screen is deterministic).
 #include <functional>
 #include <map>
 #include <string>
 #include <vector>
 
+#include "skein/search/coarse_screen.hpp"
 #include "skein/search/search_answer.hpp"
 #include "skein/search/search_outputs.hpp"
 #include "skein/search/search_plan.hpp"
@@ -36,6 +40,7 @@ struct SearchRunOptions {
 struct SearchStatus {
   size_t candidates = 0;       // layouts in cost order (not skipped by the plan)
   size_t evaluated = 0;        // of them, evaluated so far (with the resumed ones)
+  size_t screened = 0;         // of them, ruled out by the coarse screen so far
   size_t open_from = 0;        // cost-order position of the first tie not yet decided
   std::optional<size_t> best;  // the best meeting layout evaluated so far (in the sweep's order)
   std::vector<double> bound;   // the costs at open_from: every cheaper candidate fails the requirement
@@ -57,6 +62,8 @@ struct SearchRunResult {
   LayoutSet set;
   SearchPlan plan;
   std::map<size_t, std::string> rows;  // evaluated layouts' encoded rows
+  std::map<size_t, ScreenOutcome> screened;  // layouts the coarse screen ruled out (never evaluated in full)
+  long coarse_runs = 0;                      // coarse coverage runs of the screen (this run, not resumed ones)
   SearchAnswer answer;
   SearchOutputs outputs;
   long resumed = 0, damaged_lines = 0;

@@ -30,7 +30,8 @@ std::string costs_text(const Sweep& space, const std::vector<double>& costs) {
 }  // namespace
 
 SearchOutputs assemble_search_outputs(const Search& search, const LayoutSet& set, const SearchPlan& plan,
-                                      const std::map<size_t, std::string>& rows, const SearchAnswer& answer) {
+                                      const std::map<size_t, std::string>& rows, const SearchAnswer& answer,
+                                      const std::map<size_t, ScreenOutcome>& screened) {
   const Sweep& space = search.space;
   const std::vector<Column> cols = sweep_columns(space);
   SearchOutputs out;
@@ -40,6 +41,7 @@ SearchOutputs assemble_search_outputs(const Search& search, const LayoutSet& set
   n.evaluated = rows.size();
   n.skipped_budget = plan.skipped_budget;
   n.skipped_cap_area = plan.skipped_cap_area;
+  n.skipped_screen = static_cast<long>(screened.size());
 
   std::map<size_t, RowSummary> sums;
   Table evaluated;
@@ -76,7 +78,13 @@ SearchOutputs assemble_search_outputs(const Search& search, const LayoutSet& set
     j["costs"] = costs_json(space, p.costs);
     if (position[p.layout] >= 0) j["cost_rank"] = position[p.layout];
     const auto s = sums.find(p.layout);
-    if (s != sums.end()) {
+    const auto c = screened.find(p.layout);
+    if (c != screened.end()) {
+      j["outcome"] = "skipped";
+      j["reason"] = c->second.reason;
+      j["bound"] = c->second.bound;
+      j["coarse"] = {{"figure", c->second.figure}, {"value", c->second.coarse_value}};
+    } else if (s != sums.end()) {
       j["outcome"] = "evaluated";
       j["status"] = s->second.evaluated ? "ok" : "error";
       j["meets"] = s->second.meets;
@@ -114,7 +122,9 @@ SearchOutputs assemble_search_outputs(const Search& search, const LayoutSet& set
   a["combinations"] = n.combinations;
   a["layouts"] = n.layouts;
   a["evaluated"] = n.evaluated;
-  a["skipped"] = {{"budget", n.skipped_budget}, {"cap_area", n.skipped_cap_area}, {"cost_order", n.skipped_cost_order}};
+  a["skipped"] = {{"budget", n.skipped_budget}, {"cap_area", n.skipped_cap_area}};
+  if (search.settings.screen.enabled) a["skipped"]["screen"] = n.skipped_screen;  // only with a screen: block
+  a["skipped"]["cost_order"] = n.skipped_cost_order;
   a["meeting_evaluated"] = n.meeting;
   auto layout_json = [&](size_t i) {
     nlohmann::ordered_json l;
@@ -138,9 +148,11 @@ std::string search_summary_text(const Search& search, const LayoutSet& set, cons
   const SearchCounts& n = o.counts;
   std::string t = fmt::format(
       "search {}: {} layouts in the space ({} axis combinations), {} evaluated ({} resumed from the journal), "
-      "{} skipped: {} by the budget, {} by the cap-area bound, {} by cost order after the optimum\n",
+      "{} skipped: {} by the budget, {} by the cap-area bound, {}{} by cost order after the optimum\n",
       space.name, n.layouts, n.combinations, n.evaluated, resumed,
-      n.skipped_budget + n.skipped_cap_area + n.skipped_cost_order, n.skipped_budget, n.skipped_cap_area,
+      n.skipped_budget + n.skipped_cap_area + n.skipped_screen + n.skipped_cost_order, n.skipped_budget,
+      n.skipped_cap_area,
+      search.settings.screen.enabled ? fmt::format("{} by the coarse screen, ", n.skipped_screen) : std::string(),
       n.skipped_cost_order);
   if (o.optimum) {
     t += fmt::format("optimum: layout {} ({}): {}, {} {:.3f}\n", *o.optimum, walker_label(set.layouts[*o.optimum]),

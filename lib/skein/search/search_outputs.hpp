@@ -2,7 +2,8 @@
 // The search's output files, from the plan, the evaluated rows and the answer (so the same, byte for byte,
 // whatever the thread or rank count and across a kill and resume):
 //   record.jsonl    one line per layout of the space, in layout order: its costs and what became of it
-//                   (evaluated, meets or not; or skipped, with the reason and the bound it cites)
+//                   (evaluated, meets or not; or skipped, with the reason and the bound it cites: the budget,
+//                   the cap-area bound, the coarse screen, or cost order after the answer)
 //   evaluated.csv   the evaluated layouts' rows, the sweep's columns (results_rows.hpp), in layout order
 //   evaluated.jsonl the same as JSON lines
 //   answer.json     the optimum, the runners-up (the next meeting layouts by cost) and the counts
@@ -14,6 +15,7 @@
 #include <vector>
 
 #include "skein/report/table.hpp"
+#include "skein/search/coarse_screen.hpp"
 #include "skein/search/search_answer.hpp"
 #include "skein/search/search_plan.hpp"
 #include "skein/search/search_spec.hpp"
@@ -25,7 +27,7 @@ struct SearchCounts {
   double combinations = 0;       // axis combinations (the layouts plus those the expansion skips)
   size_t layouts = 0;            // the space: layouts a full sweep of the same axes evaluates
   size_t evaluated = 0;
-  long skipped_budget = 0, skipped_cap_area = 0, skipped_cost_order = 0;
+  long skipped_budget = 0, skipped_cap_area = 0, skipped_screen = 0, skipped_cost_order = 0;
   long meeting = 0;              // evaluated layouts meeting the requirement
 };
 
@@ -43,9 +45,10 @@ struct SearchOutputs {
   }
 };
 
-// `rows`: the encoded rows of exactly the evaluated layouts.
+// `rows`: the encoded rows of exactly the evaluated layouts; `screened`: the layouts the coarse screen ruled out.
 SearchOutputs assemble_search_outputs(const Search& search, const LayoutSet& set, const SearchPlan& plan,
-                                      const std::map<size_t, std::string>& rows, const SearchAnswer& answer);
+                                      const std::map<size_t, std::string>& rows, const SearchAnswer& answer,
+                                      const std::map<size_t, ScreenOutcome>& screened = {});
 
 // The summary for the user (lines ending in newlines): the answer, the counts and each bound's skips.
 std::string search_summary_text(const Search& search, const LayoutSet& set, const SearchOutputs& outputs,

@@ -8,6 +8,13 @@
 
 namespace skein {
 
+// The coarse-to-fine screen (coarse_screen.hpp): off unless the search block has a `screen:` map.
+struct ScreenSettings {
+  bool enabled = false;
+  double span_share = 0.25;  // the prefix span: this share of the span, rounded down to whole steps (0: none)
+  int grid_stride = 3;       // the sub-grid: every grid_stride-th row and column of cells (odd; 1: none)
+};
+
 struct SearchSettings {
   // Layouts evaluated together, in cost order (in parallel over threads and MPI ranks). The batches are fixed
   // by the file, not by the thread or rank count, so the layouts evaluated, and so the record, do not depend on
@@ -16,6 +23,7 @@ struct SearchSettings {
   // Meeting layouts listed after the optimum: the search goes on in cost order until it has found them, so they
   // are the next ones of the sweep's order over the whole space (each costs evaluations past the optimum).
   size_t runners_up = 3;
+  ScreenSettings screen;
 };
 
 struct Search {
