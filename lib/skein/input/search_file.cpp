@@ -20,8 +20,8 @@ SearchSettings read_settings(const std::string& path, const YAML::Node& root) {
   if (m.has("runners_up"))
     s.runners_up = static_cast<size_t>(m.integer("runners_up", 0, 1000, "the runners-up to list"));
   if (m.has("screen")) {
-    const yaml::MapReader c = m.map("screen", {"span_share", "grid_stride"});
-    s.screen.enabled = true;
+    const yaml::MapReader c = m.map("screen", {"enabled", "span_share", "grid_stride"});
+    if (c.has("enabled")) s.screen.enabled = c.boolean("enabled");
     if (c.has("span_share"))
       s.screen.span_share = c.number("span_share", 0.0, 0.9, "the share of the span screened first (0: no prefix)");
     if (c.has("grid_stride")) {

@@ -8,9 +8,10 @@
 
 namespace skein {
 
-// The coarse-to-fine screen (coarse_screen.hpp): off unless the search block has a `screen:` map.
+// The coarse-to-fine screen (coarse_screen.hpp): on by default (its skips are proven one-sided bounds, so the
+// answer is the same with it or without it); `screen: {enabled: false}` turns it off.
 struct ScreenSettings {
-  bool enabled = false;
+  bool enabled = true;
   double span_share = 0.25;  // the prefix span: this share of the span, rounded down to whole steps (0: none)
   int grid_stride = 3;       // the sub-grid: every grid_stride-th row and column of cells (odd; 1: none)
 };
