@@ -1,0 +1,47 @@
+#pragma once
+// Every pass of every satellite over every point of a cell grid, handed to a callback as it is found; no list
+// of passes is kept. Used by the age of the data (data_age.hpp), where the one-point-at-a-time search of the
+// sites (pass_search.hpp over each point) would cost points x satellites x samples.
+//
+// Per satellite, its Earth-fixed positions at the pass search's sample instants (0, step, ..., the span's end;
+// step = min(coverage step, 60 s), as for contacts). Between two samples a < b, a point can be in view only if
+// its geocentric angle from the satellite's direction stays within lambda_max somewhere in [a, b], with
+//   lambda_max = acos(R_min cos e' / r_apogee) - e' + 0.5 deg,
+// the largest geocentric angle from which a satellite at the apogee radius is seen at geocentric elevation e'
+// from a point at the grid's smallest radius R_min (spherical triangle; larger for a lower point or a higher
+// satellite), e' = mask - 0.25 deg (the geodetic vertical leans from the geocentric one by under 0.2 deg on the
+// ellipsoid; the 0.5 deg is margin, common practice). The satellite's direction turns at most
+// w = v_max / r_perigee rad/s (v_max the search's speed bound, pass_search.cpp), so between samples:
+//   - a latitude row is skipped when (|dlat(a)| + |dlat(b)| - w (b - a)) / 2 > lambda_max;
+//   - else only its points within lambda_max + w (b - a) of the satellite at a are searched, a longitude window
+//     from the spherical law of cosines.
+// The skipped pairs are out of view over the whole of [a, b] (both bounds err on the large side). Each searched
+// pair runs the pass search's rate-bounded refinement between the two samples (scan_view_between): every pass
+// longer than 1 ms is found, however much shorter than the step, and rises and sets are placed within 0.5 ms,
+// the same as the sites' search. Passes cut by the span's start or end count, with the part inside the span.
+//
+// Work: one task per latitude row (in parallel); per row, for each satellite, each step: one row test, then the
+// points in the window. Memory: the satellites' positions (40 bytes per satellite per sample: 1.4 MB for 24
+// satellites over a day at 60 s) and, per row task, one open-pass state (16 bytes) per point of the row.
+#include <cstddef>
+#include <functional>
+
+#include "skein/coverage/grid.hpp"
+#include "skein/design/design.hpp"
+
+namespace skein {
+
+struct GridPassOptions {
+  double span_s = 86400.0;
+  double sample_step_s = 60.0;
+  double min_elevation_deg = 0.0;  // the mask; no payload cone
+};
+
+// on_pass(point index, satellite index (expansion order), rise_s, set_s). Called from several threads, but for
+// any one point always from the same thread, satellite after satellite, each satellite's passes in time order.
+using GridPassSink = std::function<void(std::size_t, std::size_t, double, double)>;
+
+void for_each_grid_pass(const Design& design, const Grid& grid, const GridPassOptions& options,
+                        const GridPassSink& on_pass);
+
+}  // namespace skein
