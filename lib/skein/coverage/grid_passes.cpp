@@ -50,9 +50,11 @@ struct Track {
   SecularOrbit orbit;
   double v_max_km_s = 0.0, perigee_km = 0.0;
   double reach_rad = 0.0;       // lambda_max (grid_passes.hpp)
+  double sure_rad = 0.0;        // lambda_min: within it the point is in view (grid_passes.hpp)
   double turn_rad_s = 0.0;      // w
   std::vector<Eigen::Vector3d> r_km, v_km_s;
   std::vector<double> lat_rad, lon_rad;  // geocentric, of the satellite's direction
+  std::vector<Eigen::Vector3d> u;        // that direction
 };
 
 // Calls f(k) for the row's points k whose longitude is within half_width of lon (wrapping at +-180 deg).
@@ -90,38 +92,49 @@ struct Segment {
     const double s = (t - a) / h, s2 = s * s, s3 = s2 * s;
     return (2 * s3 - 3 * s2 + 1) * r0 + (s3 - 2 * s2 + s) * h * v0 + (-2 * s3 + 3 * s2) * r1 + (s3 - s2) * h * v1;
   }
+  Eigen::Vector3d velocity(double t) const {
+    const double s = (t - a) / h, s2 = s * s;
+    return ((6 * s2 - 6 * s) * r0 + (6 * s2 - 6 * s) * -r1) / h + (3 * s2 - 4 * s + 1) * v0 + (3 * s2 - 2 * s) * v1;
+  }
+  // The largest acceleration on the curve: it is linear in time, so the larger of its two ends.
+  double acceleration_bound() const {
+    const Eigen::Vector3d k = 6.0 * (r1 - r0) / (h * h);
+    return std::max((k - (4.0 * v0 + 2.0 * v1) / h).norm(), (-k + (2.0 * v0 + 4.0 * v1) / h).norm());
+  }
 };
 
 struct Sample {
-  double margin, range_km;
+  double margin, range_km, rate;  // m, |d|, dm/dt
 };
 
-Sample sample_at(const ViewPoint& p, const Eigen::Vector3d& r_sat) {
+Sample sample_at(const ViewPoint& p, const Eigen::Vector3d& r_sat, const Eigen::Vector3d& v_sat) {
   const Eigen::Vector3d d = r_sat - p.r_km;
   const double range = d.norm();
-  return {d.dot(p.up) / range - p.sin_mask, range};
+  const double sin_e = d.dot(p.up) / range;
+  // dm/dt = v . (up - sin(e) d/|d|) / |d|
+  return {sin_e - p.sin_mask, range, (v_sat.dot(p.up) - sin_e * v_sat.dot(d) / range) / range};
 }
 
-// The pass search's rate-bounded refinement (pass_search.hpp: an interval with the same sign at both ends is
-// dropped when |m(a)| + |m(b)| > (v_max / d_low) (b - a), else halved; a sign change is closed to 1 ms), on the
-// segment's path. Appends the rises and sets strictly inside (a, b).
-void scan(const Segment& seg, const ViewPoint& p, double v_max, double floor_km, double a, const Sample& sa,
-          double b, const Sample& sb, std::vector<double>& events) {
-  const bool in_a = sa.margin >= 0.0, in_b = sb.margin >= 0.0;
-  const double w = b - a;
-  if (in_a == in_b) {
-    const double d_low = std::max(floor_km, 0.5 * (sa.range_km + sb.range_km - v_max * w));
-    if (std::abs(sa.margin) + std::abs(sb.margin) > v_max / d_low * w) return;
-    if (w <= event_resolution_s) return;
-  } else if (w <= bracket_s) {
-    // Illinois (regula falsi with the stale end's value halved) until the bracket is under 1 ms.
-    double x0 = a, f0 = sa.margin, x1 = b, f1 = sb.margin;
+// Where the satellite is on the segment: the margin changes at most L = v_max / d_low (the pass search's bound,
+// pass_search.hpp) and its rate at most M2 = 2 A / d_low + 3 v_max^2 / d_low^2 (A the segment's largest
+// acceleration; from d^2/dt^2 of the unit line of sight), d_low bounding the range over [a, b] from below.
+// [a, b] holds no crossing when both ends have the same sign and either |m(a)| + |m(b)| > L (b - a) or m is
+// monotonic (its rates at both ends of that sign, sum above M2 (b - a)); exactly one when the signs differ and m
+// is monotonic, which is then solved at once. Else halved, down to 2 s, then solved (Illinois, to 1 ms).
+// Appends the rises and sets strictly inside (a, b).
+struct Scanner {
+  const Segment& seg;
+  const ViewPoint& p;
+  double v_max, floor_km, acc;
+  std::vector<double>& events;
+
+  void solve(double x0, double f0, double x1, double f1) const {
     int side = 0;
     while (x1 - x0 > event_resolution_s) {
       double x = (x0 * f1 - x1 * f0) / (f1 - f0);
       // Keep the new point inside, at least a quarter of the resolution from either end.
       x = std::clamp(x, x0 + 0.25 * event_resolution_s, x1 - 0.25 * event_resolution_s);
-      const double f = sample_at(p, seg.at(x)).margin;
+      const double f = sample(x).margin;
       if ((f >= 0.0) == (f0 >= 0.0)) {
         x0 = x;
         f0 = f;
@@ -135,13 +148,31 @@ void scan(const Segment& seg, const ViewPoint& p, double v_max, double floor_km,
       }
     }
     events.push_back(0.5 * (x0 + x1));
-    return;
   }
-  const double m = 0.5 * (a + b);
-  const Sample sm = sample_at(p, seg.at(m));
-  scan(seg, p, v_max, floor_km, a, sa, m, sm, events);
-  scan(seg, p, v_max, floor_km, m, sm, b, sb, events);
-}
+
+  Sample sample(double t) const { return sample_at(p, seg.at(t), seg.velocity(t)); }
+
+  void scan(double a, const Sample& sa, double b, const Sample& sb) const {
+    const bool in_a = sa.margin >= 0.0, in_b = sb.margin >= 0.0;
+    const double w = b - a;
+    const double d_low = std::max(floor_km, 0.5 * (sa.range_km + sb.range_km - v_max * w));
+    const double m2 = 2.0 * acc / d_low + 3.0 * v_max * v_max / (d_low * d_low);
+    const bool monotonic = (sa.rate > 0.0 && sb.rate > 0.0 && sa.rate + sb.rate > m2 * w) ||
+                           (sa.rate < 0.0 && sb.rate < 0.0 && -(sa.rate + sb.rate) > m2 * w);
+    if (in_a == in_b) {
+      if (monotonic) return;
+      if (std::abs(sa.margin) + std::abs(sb.margin) > v_max / d_low * w) return;
+      if (w <= event_resolution_s) return;
+    } else if (monotonic || w <= bracket_s) {
+      solve(a, sa.margin, b, sb.margin);
+      return;
+    }
+    const double m = 0.5 * (a + b);
+    const Sample sm = sample(m);
+    scan(a, sa, m, sm);
+    scan(m, sm, b, sb);
+  }
+};
 
 }  // namespace
 
@@ -152,9 +183,13 @@ void for_each_grid_pass(const Design& design, const Grid& grid, const GridPassOp
   const std::vector<double> times = pass_search_times(span);
   const double theta0 = greenwich_mean_sidereal_angle_rad(julian_date(design.epoch));
   const double sin_mask = std::sin(options.min_elevation_deg * rad_per_deg);
-  double r_min = 0.0;
-  for (const GridPoint& g : grid.points) r_min = r_min == 0.0 ? g.r_km.norm() : std::min(r_min, g.r_km.norm());
+  double r_min = 0.0, r_top = 0.0;
+  for (const GridPoint& g : grid.points) {
+    r_min = r_min == 0.0 ? g.r_km.norm() : std::min(r_min, g.r_km.norm());
+    r_top = std::max(r_top, g.r_km.norm());
+  }
   const double e_low = options.min_elevation_deg * rad_per_deg - vertical_lean_rad;
+  const double e_high = options.min_elevation_deg * rad_per_deg + vertical_lean_rad;
 
   const std::vector<Satellite> sats = expand_constellation(design);
   std::vector<Track> tracks(sats.size());
@@ -164,6 +199,7 @@ void for_each_grid_pass(const Design& design, const Grid& grid, const GridPassOp
     tr.v_max_km_s = view_speed_bound_km_s(design.earth, tr.orbit);
     tr.perigee_km = tr.orbit.epoch_elements.a_km * (1.0 - tr.orbit.epoch_elements.e);
     double r_max = tr.orbit.epoch_elements.a_km * (1.0 + tr.orbit.epoch_elements.e);
+    double r_low = tr.orbit.epoch_elements.a_km * (1.0 - tr.orbit.epoch_elements.e);
     for (double t : times) {
       const EarthFixedState ef =
           earth_fixed_state_at(design.earth, tr.orbit, theta0 + design.earth.rotation_rad_s * t, t);
@@ -172,20 +208,28 @@ void for_each_grid_pass(const Design& design, const Grid& grid, const GridPassOp
       tr.v_km_s.push_back(ef.v_km_s);
       tr.lat_rad.push_back(std::asin(std::clamp(r.z() / r.norm(), -1.0, 1.0)));
       tr.lon_rad.push_back(std::atan2(r.y(), r.x()));
+      tr.u.push_back(r.normalized());
       r_max = std::max(r_max, r.norm());
+      r_low = std::min(r_low, r.norm());
     }
     tr.reach_rad = std::acos(std::min(1.0, r_min * std::cos(e_low) / r_max)) - e_low + reach_margin_rad;
     tr.turn_rad_s = tr.v_max_km_s / tr.perigee_km;
+    // The other way round: seen at geocentric elevation e'' = mask + 0.25 deg or more from the highest point by a
+    // satellite at its lowest radius, less the margin; none when the orbit is below that point's horizon.
+    const double c = r_top * std::cos(e_high) / r_low;
+    tr.sure_rad = c < 1.0 ? std::acos(c) - e_high - reach_margin_rad : -1.0;
   });
 
   tbb::parallel_for(std::size_t{0}, rows.size(), [&](std::size_t i) {
     const Row& row = rows[i];
     const std::size_t n = row.points.size();
     std::vector<ViewPoint> view(n);
+    std::vector<Eigen::Vector3d> u(n);
     std::vector<double> floor_km(n);
     for (std::size_t k = 0; k < n; ++k) {
       const GridPoint& g = grid.points[row.points[k]];
       view[k] = {g.r_km, g.up, sin_mask};
+      u[k] = g.r_km.normalized();
     }
     const double sin_row = std::sin(row.lat_rad), cos_row = std::cos(row.lat_rad);
     std::vector<char> open(n);
@@ -214,10 +258,22 @@ void for_each_grid_pass(const Design& design, const Grid& grid, const GridPassOp
           }
         }
         const Segment seg{a, b - a, tr.r_km[j], tr.v_km_s[j], tr.r_km[j + 1], tr.v_km_s[j + 1]};
+        const double acc = 1.01 * seg.acceleration_bound();
+        // Per point, two cheap tests on the angles to the satellite at a and b: out of reach at b (as at a, by
+        // the window), or so deep inside at a that it stays in view to b (then, when its pass is open, nothing
+        // happens in [a, b]).
+        const double cos_reach = reach < pi ? std::cos(reach) : -1.0;
+        const double sure = tr.sure_rad - turn;
+        const double cos_sure = sure > 0.0 ? std::cos(sure) : 2.0;
         for_each_in_window(row, tr.lon_rad[j], half_width, [&](std::size_t k) {
+          const double cos_a = u[k].dot(tr.u[j]);
+          if (open[k] && cos_a >= cos_sure) return;
+          if (u[k].dot(tr.u[j + 1]) < cos_reach) return;
           events.clear();
-          const Sample sa = sample_at(view[k], seg.r0);
-          scan(seg, view[k], tr.v_max_km_s, floor_km[k], a, sa, b, sample_at(view[k], seg.r1), events);
+          const Sample sa = sample_at(view[k], seg.r0, seg.v0);
+          const Sample sb = sample_at(view[k], seg.r1, seg.v1);
+          const Scanner scanner{seg, view[k], tr.v_max_km_s, floor_km[k], acc, events};
+          scanner.scan(a, sa, b, sb);
           const bool in_a = sa.margin >= 0.0;
           // A point out of every window before a is out of view there (see the header), so its state at a is
           // the one carried over; the reconciliation only meets the span's start.
