@@ -257,10 +257,10 @@ Table gap_distribution_table(const CoverageResult& r) {
 Table data_age_table(const CoverageResult& r) {
   const bool sites = r.grid == GridKind::sites;
   Table t;
-  std::string bins = "p95 from {:g} s bins";
+  std::string bins;
   if (r.data_age && r.data_age->bin_ratio != 1.0)
-    bins = fmt::format("p95 from log-spaced bins, high by under {:.1f} % or {:g} s", 100.0 * (r.data_age->bin_ratio - 1.0),
-                       r.data_age->bin_s);
+    bins = fmt::format("p95 from log-spaced bins, high by under the larger of {:g} s and {:.1f} %", r.data_age->bin_s,
+                       100.0 * (r.data_age->bin_ratio - 1.0));
   else
     bins = fmt::format("p95 from {:g} s bins", r.data_age ? r.data_age->bin_s : 0.0);
   t.title = fmt::format("Age of the data at downlink, from the start of each {}pass to the satellite's next "
