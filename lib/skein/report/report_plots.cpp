@@ -1,6 +1,7 @@
 #include "skein/report/report_plots.hpp"
 
 #include <algorithm>
+#include <cassert>
 #include <cctype>
 #include <cmath>
 #include <optional>
@@ -154,6 +155,40 @@ std::string max_gap_map_svg(const Design& d, const CoverageResult& r, const MapC
     key.threshold = t->value;
     key.threshold_label = fmt::format("required: at most {:g} s", t->value);
     key.min = std::max(0.0, lo - margin);
+    key.max = top + margin;
+  }
+  f.key = key;
+  f.outlines = region_outline(d, r);
+  return map_figure_svg(f);
+}
+
+std::string data_age_map_svg(const Design& d, const CoverageResult& r, const MapContext& m) {
+  assert(r.data_age.has_value());
+  const auto t = threshold_on(r, {RequirementFigure::p95_data_age_s});
+  MapFigure f = base_map("data_age_map", lit_title(r, "95th-percentile age of the data at downlink"), m);
+  f.view = cell_view(d, r);
+  // Cells with no observation that reached the ground have no age: left blank, not drawn as the best colour.
+  double lo = 0.0, hi = 0.0;
+  for (size_t p = 0; p < r.points.size(); ++p) {
+    const DataAgeFigures& a = r.data_age->per_point[p];
+    const auto& c = r.points[p].point.cell;
+    if (!c || a.observations == a.censored) continue;
+    f.cells.push_back({c->lon_min_deg, c->lon_max_deg, c->lat_min_deg, c->lat_max_deg, a.p95_s});
+    lo = f.cells.size() == 1 ? a.p95_s : std::min(lo, a.p95_s);
+    hi = std::max(hi, a.p95_s);
+  }
+  ColourKey key;
+  key.label = lit_label(r, "p95 age of the data (s)");
+  key.min = 0.0;
+  key.max = hi > 0 ? hi : 1.0;
+  key.higher_is_better = false;
+  if (t) {
+    // The threshold judges the grid's area-weighted p95; the map shows which cells lie on which side of it.
+    const double top = std::max(hi, t->value), bottom = std::min(lo, t->value);
+    const double margin = std::max(1.0, 0.05 * (top - bottom));
+    key.threshold = t->value;
+    key.threshold_label = fmt::format("grid required: at most {:g} s", t->value);
+    key.min = std::max(0.0, bottom - margin);
     key.max = top + margin;
   }
   f.key = key;
