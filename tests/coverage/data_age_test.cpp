@@ -241,7 +241,7 @@ const char* const two_stations =
 
 }  // namespace
 
-TEST_CASE("data age: log-spaced bins hold each age below its upper edge; p95 high by under the stated bound") {
+TEST_CASE("data age: log-spaced bins hold each age below its upper edge, and the p95 is high by under the stated bound") {
   // Reference: the nearest-rank p95 of the sorted sample (as above). The log-spaced bins' p95 is the bin's upper
   // edge capped at the maximum, so at most max(first bin, (ratio - 1) x p95) above the reference (data_age.hpp).
   const DataAgeBins bins = DataAgeBins::log_spaced(86400.0);
