@@ -176,6 +176,7 @@ namespace {
 // 1 s, so an age by under 2 s.
 struct BruteAge {
   long observations = 0, censored = 0;
+  long short_runs = 0;       // (in view and lit) runs shorter than 60 s: shorter than the search's step
   std::vector<double> ages;  // uncensored, sorted
 };
 
@@ -225,6 +226,9 @@ std::vector<BruteAge> brute_force_ages(const Design& d, const CoverageResult& r)
         const size_t u = static_cast<size_t>(j);
         if (!seen[p][s][u] || (j > 0 && seen[p][s][u - 1])) continue;
         ++out[p].observations;
+        long e = j;
+        while (e < n && seen[p][s][static_cast<size_t>(e)]) ++e;
+        if (j > 0 && e < n && e - j < 60) ++out[p].short_runs;
         long k = j;
         while (k < n && !link[s][static_cast<size_t>(k)]) ++k;
         if (k == n) ++out[p].censored;
@@ -291,8 +295,9 @@ TEST_CASE("data age: band cells with daylight against a brute-force scan of pass
   REQUIRE(r.points.size() == 54);
   CHECK(age.bin_ratio > 1.0);  // cells: log-spaced bins
   const std::vector<BruteAge> ref = brute_force_ages(d, r);
-  long total_obs = 0, points_with_ages = 0;
+  long total_obs = 0, points_with_ages = 0, short_runs = 0;
   for (size_t p = 0; p < r.points.size(); ++p) {
+    short_runs += ref[p].short_runs;
     CAPTURE(p);
     const DataAgeFigures& f = age.per_point[p];
     const BruteAge& b = ref[p];
@@ -311,6 +316,7 @@ TEST_CASE("data age: band cells with daylight against a brute-force scan of pass
   }
   CHECK(age.total.observations == total_obs);
   CHECK(points_with_ages >= 40);  // the case is not empty
+  CHECK(short_runs >= 2);  // and passes (or lit pieces) shorter than the 60 s step, found (grid_passes_test: more)
 }
 
 TEST_CASE("data age: a one-cell region gives the figures of a site at its centre") {
