@@ -1,6 +1,7 @@
 // Evidence that with the daylight mask (coverage.min_sun_elevation_deg) every coverage plot says "lit" in its
 // title, as the tables' titles and headings do (issue 18 item 1: "the report says so in every heading"), and
-// that without it no plot does (the designs have a station, so the cells' data-age map is among them). Reference: the titles written by report_plots.cpp, read from the SVG's text.
+// that without it no plot does (the designs have a station, so the cells' data-age map is among them).
+// Reference: the titles written by report_plots.cpp, read from the SVG's text.
 #include <doctest/doctest.h>
 
 #include <regex>
@@ -16,7 +17,8 @@ using namespace skein;
 namespace {
 
 std::string design_text(const std::string& grid, bool daylight) {
-  return "ground_stations:\n  - {name: North Rig, lat_deg: 70, lon_deg: 20}\nname: lit titles\nepoch: 2027-03-01T00:00:00Z\nspacecraft:\n  dry_mass_kg: 100\n  drag_area_m2: 1\n"
+  return "ground_stations:\n  - {name: North Rig, lat_deg: 70, lon_deg: 20}\n"
+         "name: lit titles\nepoch: 2027-03-01T00:00:00Z\nspacecraft:\n  dry_mass_kg: 100\n  drag_area_m2: 1\n"
          "  drag_coefficient: 2.2\nshells:\n  - name: w\n    pattern: walker-delta\n    satellites: 6\n    planes: 3\n"
          "    phasing: 1\n    altitude_km: 650\n    inclination_deg: 97.9\ncoverage:\n  grid:\n" +
          grid + (daylight ? "  min_sun_elevation_deg: 10\n" : "") + "  span_h: 6\n  step_s: 60\n  max_fold: 1\n";
