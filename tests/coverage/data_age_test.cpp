@@ -416,3 +416,18 @@ TEST_CASE("data age: a max_p95_data_age_s requirement on a region grid is judged
   CHECK(loose.requirement->met);
   CHECK(!tight.requirement->met);
 }
+
+TEST_CASE("data age: computed unless the options leave it out, as a sweep does without a data-age requirement") {
+  // Reference: CoverageOptions::data_age (options.hpp); the other figures do not depend on it (the same run).
+  const Design d = read_design_text(
+      test::coverage_design_head() + test::walker_shell(6, 3, 1, 650.0, 97.9) +
+          "coverage:\n  grid:\n    spacing_deg: 30\n  span_h: 6\n  step_s: 60\n  max_fold: 1\n" + two_stations,
+      "opt.yaml");
+  CoverageOptions without;
+  without.data_age = false;
+  const CoverageResult a = evaluate_coverage(d), b = evaluate_coverage(d, without);
+  CHECK(a.data_age.has_value());
+  CHECK(!b.data_age.has_value());
+  CHECK(a.total.percent_by_fold == b.total.percent_by_fold);
+  CHECK(a.total.max_gap_s == b.total.max_gap_s);
+}

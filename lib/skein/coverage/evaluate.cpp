@@ -283,7 +283,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan,
   {
     Design resolved = design;
     resolved.coverage = st.spec;
-    if (data_age_applies(resolved)) res.data_age = compute_data_age(resolved, grid);
+    if (options.data_age && data_age_applies(resolved)) res.data_age = compute_data_age(resolved, grid);
   }
   if (st.spec.requirement) res.requirement = judge_requirement(*st.spec.requirement, res);
   return res;
