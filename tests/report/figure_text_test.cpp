@@ -3,7 +3,8 @@
 // bound on DejaVu Sans advance widths, read from the font's metrics) and its anchor, font size and rotation,
 // and its box must lie inside the root <svg>'s width and height. The figures checked are those of whole
 // reports: the global-grid example (designs/small.yaml), the sites example (designs/harbour-watch.yaml, with a
-// requirement: diverging key and its threshold label) and a region design, with and without land outlines,
+// requirement: diverging key and its threshold label), the region example with data age and daylight
+// (designs/fathom-relay.yaml: the data-age map, lit titles) and a region design, with and without land outlines,
 // and scatter plots with long labels. The parser is checked to fail on a label past the edge.
 #include <doctest/doctest.h>
 
@@ -108,7 +109,8 @@ TEST_CASE("figure text: every label of every report figure fits its figure, with
     with_land.land_note = l.note;
   }
   without.land_note = load_land_outlines("/nonexistent/land-110m.json").note;
-  for (const char* name : {"small", "harbour-watch"}) {
+  // fathom-relay: a region with stations and daylight, so the data-age map (threshold key) and lit titles.
+  for (const char* name : {"small", "harbour-watch", "fathom-relay"}) {
     const Design d = read_design_file(std::string(SKEIN_SOURCE_DIR) + "/designs/" + name + ".yaml");
     check_report_figures(d, with_land);
     check_report_figures(d, without);

@@ -281,11 +281,11 @@ CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan,
   res.track_deviation_bound_deg = track_eps * deg_per_rad;
   res.path_error_bound_m = path_error_m;
   collect_metrics(res, grid, state, hist, worst_cos, worst_q, total_q, smp, st.spec.band_width_deg);
-  // Age of the data (sites grids with ground stations), over the resolved coverage settings.
+  // Age of the data (any grid, with ground stations), over the resolved coverage settings.
   {
     Design resolved = design;
     resolved.coverage = st.spec;
-    if (data_age_applies(resolved)) res.data_age = compute_data_age(resolved, grid);
+    if (options.data_age && data_age_applies(resolved)) res.data_age = compute_data_age(resolved, grid);
   }
   if (st.spec.requirement) res.requirement = judge_requirement(*st.spec.requirement, res);
   return res;

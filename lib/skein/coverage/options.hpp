@@ -18,6 +18,8 @@ struct CoverageOptions {
   std::optional<int> max_fold;              // default: the design's max_fold, else min(3, satellites)
   CoverageMode mode = CoverageMode::culled; // exhaustive tests every pair
   bool force = false;                       // run even when the estimate exceeds the limits below
+  bool data_age = true;                     // the age of the data, when the design has ground stations (a
+                                            // sweep asks for it only when its requirement judges it)
   double memory_limit_bytes = 4.0 * 1024 * 1024 * 1024;  // refuse above 4 GiB of estimated memory
   double pair_test_limit = 2e12;            // refuse above 2e12 estimated pair tests (about an hour on 2 cores)
   std::atomic<std::int64_t>* progress = nullptr;  // when set, incremented by finished point-instants

@@ -82,6 +82,10 @@ class PairSearch {
 
 }  // namespace
 
+double view_speed_bound_km_s(const EarthModel& earth, const SecularOrbit& orbit) {
+  return speed_bound_km_s(earth, orbit);
+}
+
 double view_margin(const ViewPoint& point, const Eigen::Vector3d& r_sat, const std::optional<double>& cos_cone) {
   return sample_at(point, r_sat, cos_cone).margin;
 }

@@ -56,6 +56,9 @@ std::vector<std::vector<ContactInterval>> find_view_intervals(const EarthModel& 
                                                               double theta0_rad, const std::vector<ViewPoint>& points,
                                                               const PassSearchSpan& span);
 
+// v_max of the bound above: an upper bound of the satellite's Earth-fixed speed (km/s) under the model.
+double view_speed_bound_km_s(const EarthModel& earth, const SecularOrbit& orbit);
+
 // The margin m of a satellite at r_sat seen from `point` (see above); in view when >= 0.
 double view_margin(const ViewPoint& point, const Eigen::Vector3d& r_sat, const std::optional<double>& cos_cone);
 

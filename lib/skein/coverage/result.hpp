@@ -96,7 +96,7 @@ struct CoverageResult {
   std::vector<WorstPoint> worst_point_by_fold;        // k = 1..K
   std::vector<double> in_view_fraction;     // [n]: time- and area-weighted share with n satellites in view; last bin is "n or more"
   std::vector<double> gap_quantiles_s;      // [q], q = 0..100 %: pooled area-weighted gap distribution (empty: no gaps)
-  std::optional<DataAgeResult> data_age;    // sites grids with ground stations (data_age.hpp); none otherwise
+  std::optional<DataAgeResult> data_age;    // designs with ground stations (data_age.hpp); none otherwise
   std::optional<RequirementVerdict> requirement;  // the design's coverage.requirement, judged (none without one)
 
   // Work done, for benchmarks and the progress line.

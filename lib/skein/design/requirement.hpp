@@ -19,7 +19,7 @@ enum class RequirementFigure {
   p95_gap_s,              // 95th percentile of the pooled, area-weighted gap distribution (lower is better)
   mean_response_time_s,   // area-weighted mean wait until the next coverage (lower is better)
   p95_data_age_s          // 95th percentile of the age of the data at downlink (coverage/data_age.hpp; needs
-                          // ground stations and a sites grid; the same at every fold; lower is better)
+                          // ground stations, any grid; the same at every fold; lower is better)
 };
 std::string_view to_string(RequirementFigure figure);
 std::optional<RequirementFigure> requirement_figure_from_string(std::string_view text);

@@ -39,15 +39,12 @@ Requirement read_requirement_block(const yaml::MapReader& parent, const std::str
       {"max_mean_response_time_s", RequirementFigure::mean_response_time_s, 1e9, "a response time in s"},
       {"max_p95_data_age_s", RequirementFigure::p95_data_age_s, 1e9, "an age of the data in s"},
   };
-  // Data age needs somewhere to take the data (ground stations) and named sites to observe; checked here, at
-  // the key, before any work.
+  // Data age needs somewhere to take the data (ground stations) and passes found by the elevation mask alone;
+  // checked here, at the key, before any work. Any grid kind.
   if (m.has("max_p95_data_age_s")) {
     if (!options.has_ground_stations)
       m.fail_key("max_p95_data_age_s", "a data-age threshold needs ground stations to take the data down; expected "
                                        "a ground_stations list in the design (name, lat_deg, lon_deg)");
-    if (!options.sites_grid)
-      m.fail_key("max_p95_data_age_s", "data age is computed for a grid of kind sites; expected coverage.grid.kind: "
-                                       "sites");
     if (options.has_payload_cone)
       m.fail_key("max_p95_data_age_s", "data age finds passes by the elevation mask only; expected no "
                                        "coverage.nadir_half_angle_deg with a data-age threshold");
@@ -62,9 +59,8 @@ Requirement read_requirement_block(const yaml::MapReader& parent, const std::str
     std::vector<std::string_view> names;
     for (RequirementFigure f : all_requirement_figures()) names.push_back(to_string(f));
     r.figure = *requirement_figure_from_string(m.choice("figure", names));
-    if (r.figure == RequirementFigure::p95_data_age_s && (!options.has_ground_stations || !options.sites_grid ||
-                                                          options.has_payload_cone))
-      m.fail_key("figure", "p95_data_age_s needs ground stations, a grid of kind sites and no payload cone");
+    if (r.figure == RequirementFigure::p95_data_age_s && (!options.has_ground_stations || options.has_payload_cone))
+      m.fail_key("figure", "p95_data_age_s needs ground stations and no payload cone");
   } else {
     r.figure = r.thresholds.front().figure;
   }

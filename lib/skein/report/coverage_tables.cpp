@@ -255,11 +255,20 @@ Table gap_distribution_table(const CoverageResult& r) {
 }
 
 Table data_age_table(const CoverageResult& r) {
+  const bool sites = r.grid == GridKind::sites;
   Table t;
+  std::string bins;
+  if (r.data_age && r.data_age->bin_ratio != 1.0)
+    bins = fmt::format("p95 from log-spaced bins, high by under the larger of {:g} s and {:.1f} %", r.data_age->bin_s,
+                       100.0 * (r.data_age->bin_ratio - 1.0));
+  else
+    bins = fmt::format("p95 from {:g} s bins", r.data_age ? r.data_age->bin_s : 0.0);
   t.title = fmt::format("Age of the data at downlink, from the start of each {}pass to the satellite's next "
-                        "contact with any station (censored: no contact before the span's end; p95 from {:g} s bins)",
-                        r.min_sun_elevation_deg ? "lit " : "", r.data_age ? r.data_age->bin_s : 0.0);
-  t.columns = {{"name", "site", "", 0},
+                        "contact with any station (censored: no contact before the span's end; {}){}",
+                        r.min_sun_elevation_deg ? "lit " : "", bins,
+                        sites ? "" : fmt::format("; the grid (area-weighted), then the {} cells of largest p95",
+                                                 data_age_worst_cells));
+  t.columns = {{"name", sites ? "site" : "cell (lat, lon)", "", 0},
                {"observations", r.min_sun_elevation_deg ? "lit passes" : "passes", "", 0},
                {"censored", "censored", "", 0},
                {"mean_data_age_s", "mean age", "s", 1},
@@ -269,8 +278,23 @@ Table data_age_table(const CoverageResult& r) {
   const auto add = [&](const std::string& name, const DataAgeFigures& f) {
     t.add_row({name, f.observations, f.censored, f.mean_s, f.p95_s, f.max_s});
   };
-  for (size_t p = 0; p < r.points.size(); ++p) add(r.points[p].point.name, r.data_age->per_point[p]);
-  add("all sites (weighted)", r.data_age->total);
+  if (sites) {
+    for (size_t p = 0; p < r.points.size(); ++p) add(r.points[p].point.name, r.data_age->per_point[p]);
+    add("all sites (weighted)", r.data_age->total);
+    return t;
+  }
+  // Cells: the grid's figures first, then the worst cells (largest p95, then largest mean, then grid order).
+  add("all cells (area-weighted)", r.data_age->total);
+  std::vector<size_t> order(r.points.size());
+  for (size_t p = 0; p < order.size(); ++p) order[p] = p;
+  const auto& f = r.data_age->per_point;
+  std::stable_sort(order.begin(), order.end(), [&](size_t a, size_t b) {
+    return f[a].p95_s > f[b].p95_s || (f[a].p95_s == f[b].p95_s && f[a].mean_s > f[b].mean_s);
+  });
+  for (size_t k = 0; k < order.size() && k < data_age_worst_cells; ++k) {
+    const GridPoint& g = r.points[order[k]].point;
+    add(fmt::format("{:.2f}, {:.2f}", g.lat_deg, g.lon_deg), f[order[k]]);
+  }
   return t;
 }
 
@@ -322,12 +346,14 @@ nlohmann::ordered_json coverage_json(const CoverageResult& result) {
     age["observation_instant"] = result.min_sun_elevation_deg ? "start of each lit pass" : "start of each pass";
     age["censored_means"] = "no contact of that satellite before the span's end; left out of mean and p95";
     age["histogram_bin_s"] = result.data_age->bin_s;
+    // 1 for linear bins (sites); cells: each bin this many times as wide as the one before it.
+    age["histogram_bin_ratio"] = result.data_age->bin_ratio;
     age["observations"] = result.data_age->total.observations;
     age["censored"] = result.data_age->total.censored;
     age["mean_s"] = result.data_age->total.mean_s;
     age["p95_s"] = result.data_age->total.p95_s;
     age["max_s"] = result.data_age->total.max_s;
-    age["sites"] = rows_to_json(data_age_table(result));
+    age[result.grid == GridKind::sites ? "sites" : "grid_and_worst_cells"] = rows_to_json(data_age_table(result));
     j["data_age"] = std::move(age);
   } else {
     j["data_age"] = nullptr;

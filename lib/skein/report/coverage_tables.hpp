@@ -40,8 +40,11 @@ Table gap_distribution_table(const CoverageResult& r);
 
 // The whole coverage result as the JSON `skein coverage --format json` prints (keys in a fixed order).
 nlohmann::ordered_json coverage_json(const CoverageResult& result);
-// Age of the data per site and over the grid (sites grids with ground stations; no rows otherwise): passes
-// (lit passes with the daylight mask), censored ones, mean, p95 and max age (coverage/data_age.hpp).
+// Age of the data (designs with ground stations; no rows otherwise): passes (lit passes with the daylight mask),
+// censored ones, mean, p95 and max age (coverage/data_age.hpp). Sites: one row per site, then the weighted
+// total. Cells: the area-weighted total, then the data_age_worst_cells cells of largest p95 (where the data waits
+// longest; every cell is on the report's data-age map).
+constexpr size_t data_age_worst_cells = 20;
 Table data_age_table(const CoverageResult& r);
 // A figure caption or section heading about coverage, marked "Lit coverage (...)" when the daylight mask is set
 // (coverage.min_sun_elevation_deg); unchanged otherwise.

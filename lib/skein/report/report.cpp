@@ -50,6 +50,9 @@ constexpr double shortest_period_s = 5300.0;
 // A world map's land outlines (land-110m.json, points closer than 0.4 px dropped), one path used up to three
 // times: about 95 kB measured on designs/demo.yaml; each map is in its SVG and again in index.html.
 constexpr double land_map_bytes = 2.0 * 95000.0;
+// A cell of the data-age map (cell grids with ground stations): 77 bytes in its SVG measured on a 2 deg global
+// grid (16,200 cells, 24 satellites, three stations), and again in index.html.
+constexpr double data_age_map_point_bytes = 2.0 * 80.0;
 
 ReportSizeEstimate estimate_report_size(const Design& design, const ReportOptions& options) {
   const CoverageSettings st = resolve_coverage_settings(design, options.coverage);
@@ -71,6 +74,10 @@ ReportSizeEstimate estimate_report_size(const Design& design, const ReportOption
             (options.land ? 3.0 * land_map_bytes : 0.0);
   if (st.spec.grid == GridKind::sites)
     e.bytes += points * sats * 2.0 * std::ceil(st.spec.span_s / shortest_period_s) * site_pass_bytes;
+  else if (stations > 0.0) {
+    e.files += 1.0;  // the data-age map
+    e.bytes += points * data_age_map_point_bytes;
+  }
   return e;
 }
 
@@ -166,6 +173,11 @@ Report build_report(const Design& design, const ReportOptions& options, const Re
   if (has_cells) {
     figures.push_back({"coverage_map", lit_caption(rep.coverage, "Percent of time covered, per grid cell"), coverage_map_svg(design, rep.coverage, maps)});
     figures.push_back({"max_gap_map", lit_caption(rep.coverage, "Longest revisit gap per grid cell"), max_gap_map_svg(design, rep.coverage, maps)});
+    if (rep.coverage.data_age)
+      figures.push_back({"data_age_map",
+                         lit_caption(rep.coverage, "95th-percentile age of the data at downlink per grid cell (blank: "
+                                                   "no observation reached the ground within the span)"),
+                         data_age_map_svg(design, rep.coverage, maps)});
   }
   if (rep.coverage.grid == GridKind::sites && !rep.coverage.points.empty())
     figures.push_back({"sites_map", lit_caption(rep.coverage, "The sites and their percent of time covered"), sites_map_svg(design, rep.coverage, maps)});

@@ -1,6 +1,8 @@
 #include "skein/report/report_plots.hpp"
 
 #include <algorithm>
+#include <cassert>
+#include <cctype>
 #include <cmath>
 #include <optional>
 #include <limits>
@@ -17,6 +19,16 @@
 
 namespace skein {
 namespace {
+
+// With the daylight mask every coverage figure counts lit coverage (coverage_tables.cpp, lit): a plot's title
+// then starts with "Lit" as the tables' titles do, and a key or axis label of a coverage figure reads "lit".
+std::string lit_title(const CoverageResult& r, const std::string& title) {
+  if (!r.min_sun_elevation_deg || title.empty()) return title;
+  return "Lit " + std::string(1, static_cast<char>(std::tolower(static_cast<unsigned char>(title[0])))) + title.substr(1);
+}
+std::string lit_label(const CoverageResult& r, const std::string& label) {
+  return r.min_sun_elevation_deg ? "lit " + label : label;
+}
 
 std::vector<MapCell> cells_of(const CoverageResult& r, const std::function<double(const PointCoverage&)>& value) {
   std::vector<MapCell> cells;
@@ -76,7 +88,7 @@ double max_gap_at(const PointCoverage& p, int k) {
 // The key of a percent-covered map or site marker set at fold k.
 ColourKey percent_key(const CoverageResult& r, int k, const std::optional<Threshold>& t) {
   ColourKey key;
-  key.label = fmt::format("time covered by at least {} satellite{} (%)", k, k > 1 ? "s" : "");
+  key.label = lit_label(r, fmt::format("time covered by at least {} satellite{} (%)", k, k > 1 ? "s" : ""));
   key.min = 0.0;
   key.max = 100.0;
   key.higher_is_better = true;
@@ -111,8 +123,8 @@ MapFigure base_map(const std::string& id, const std::string& title, const MapCon
 std::string coverage_map_svg(const Design& d, const CoverageResult& r, const MapContext& m) {
   const auto t = threshold_on(r, {RequirementFigure::worst_point_percent, RequirementFigure::percent_covered});
   const int k = shown_fold(r, t.has_value());
-  MapFigure f = base_map("coverage_map", k > 1 ? fmt::format("Time covered by at least {} satellites", k)
-                                               : std::string("Time covered by at least one satellite"), m);
+  MapFigure f = base_map("coverage_map", lit_title(r, k > 1 ? fmt::format("Time covered by at least {} satellites", k)
+                                                            : std::string("Time covered by at least one satellite")), m);
   f.view = cell_view(d, r);
   f.cells = cells_of(r, [k](const PointCoverage& p) { return percent_at(p, k); });
   f.key = percent_key(r, k, t);
@@ -123,13 +135,15 @@ std::string coverage_map_svg(const Design& d, const CoverageResult& r, const Map
 std::string max_gap_map_svg(const Design& d, const CoverageResult& r, const MapContext& m) {
   const auto t = threshold_on(r, {RequirementFigure::max_gap_s});
   const int k = shown_fold(r, t.has_value());
-  MapFigure f = base_map("max_gap_map", k > 1 ? fmt::format("Longest revisit gap at fold {}", k) : std::string("Longest revisit gap"), m);
+  MapFigure f = base_map(
+      "max_gap_map",
+      lit_title(r, k > 1 ? fmt::format("Longest revisit gap at fold {}", k) : std::string("Longest revisit gap")), m);
   f.view = cell_view(d, r);
   f.cells = cells_of(r, [k](const PointCoverage& p) { return max_gap_at(p, k); });
   double hi = 0;
   for (const auto& c : f.cells) hi = std::max(hi, c.value);
   ColourKey key;
-  key.label = k > 1 ? fmt::format("longest gap with fewer than {} in view (s)", k) : std::string("longest gap (s)");
+  key.label = lit_label(r, k > 1 ? fmt::format("longest gap with fewer than {} in view (s)", k) : std::string("longest gap (s)"));
   key.min = 0.0;
   key.max = hi > 0 ? hi : 1.0;
   key.higher_is_better = false;
@@ -148,10 +162,44 @@ std::string max_gap_map_svg(const Design& d, const CoverageResult& r, const MapC
   return map_figure_svg(f);
 }
 
+std::string data_age_map_svg(const Design& d, const CoverageResult& r, const MapContext& m) {
+  assert(r.data_age.has_value());
+  const auto t = threshold_on(r, {RequirementFigure::p95_data_age_s});
+  MapFigure f = base_map("data_age_map", lit_title(r, "95th-percentile age of the data at downlink"), m);
+  f.view = cell_view(d, r);
+  // Cells with no observation that reached the ground have no age: left blank, not drawn as the best colour.
+  double lo = 0.0, hi = 0.0;
+  for (size_t p = 0; p < r.points.size(); ++p) {
+    const DataAgeFigures& a = r.data_age->per_point[p];
+    const auto& c = r.points[p].point.cell;
+    if (!c || a.observations == a.censored) continue;
+    f.cells.push_back({c->lon_min_deg, c->lon_max_deg, c->lat_min_deg, c->lat_max_deg, a.p95_s});
+    lo = f.cells.size() == 1 ? a.p95_s : std::min(lo, a.p95_s);
+    hi = std::max(hi, a.p95_s);
+  }
+  ColourKey key;
+  key.label = lit_label(r, "p95 age of the data (s)");
+  key.min = 0.0;
+  key.max = hi > 0 ? hi : 1.0;
+  key.higher_is_better = false;
+  if (t) {
+    // The threshold judges the grid's area-weighted p95; the map shows which cells lie on which side of it.
+    const double top = std::max(hi, t->value), bottom = std::min(lo, t->value);
+    const double margin = std::max(1.0, 0.05 * (top - bottom));
+    key.threshold = t->value;
+    key.threshold_label = fmt::format("grid required: at most {:g} s", t->value);
+    key.min = std::max(0.0, bottom - margin);
+    key.max = top + margin;
+  }
+  f.key = key;
+  f.outlines = region_outline(d, r);
+  return map_figure_svg(f);
+}
+
 std::string sites_map_svg(const Design& d, const CoverageResult& r, const MapContext& m) {
   const auto t = threshold_on(r, {RequirementFigure::worst_point_percent, RequirementFigure::percent_covered});
   const int k = shown_fold(r, t.has_value());
-  MapFigure f = base_map("sites_map", "Sites and their time covered", m);
+  MapFigure f = base_map("sites_map", r.min_sun_elevation_deg ? "Sites and their lit time covered" : "Sites and their time covered", m);
   std::vector<LonLat> pts;
   for (const auto& p : r.points) {
     f.sites.push_back({{p.point.lon_deg, p.point.lat_deg}, p.point.name, percent_at(p, k)});
@@ -175,7 +223,9 @@ std::string coverage_by_latitude_svg(const CoverageResult& r) {
     }
     series.push_back(std::move(s));
   }
-  return line_plot_svg({"Coverage against latitude", "latitude (deg)", "time covered (%)", -90.0, 90.0, 0.0, 100.0}, series);
+  return line_plot_svg({lit_title(r, "Coverage against latitude"), "latitude (deg)", lit_label(r, "time covered (%)"),
+                        -90.0, 90.0, 0.0, 100.0},
+                       series);
 }
 
 std::string in_view_histogram_svg(const CoverageResult& r) {
@@ -183,7 +233,8 @@ std::string in_view_histogram_svg(const CoverageResult& r) {
   for (size_t n = 0; n < r.in_view_fraction.size(); ++n)
     groups.push_back({n + 1 == r.in_view_fraction.size() && n > 0 ? fmt::format("{}+", n) : std::to_string(n),
                       {100.0 * r.in_view_fraction[n]}});
-  return bar_chart_svg({"Satellites in view", "satellites in view above the mask", "share of time and area (%)"},
+  return bar_chart_svg({lit_title(r, "Satellites in view"), lit_label(r, "satellites in view above the mask"),
+                        "share of time and area (%)"},
                        {"share"}, groups);
 }
 
@@ -193,7 +244,8 @@ std::string gap_cdf_svg(const CoverageResult& r) {
     s.x.push_back(r.gap_quantiles_s[q] / 60.0);
     s.y.push_back(100.0 * static_cast<double>(q) / static_cast<double>(r.gap_quantiles_s.size() - 1));
   }
-  PlotAxes a{"Cumulative distribution of revisit gaps", "gap duration (min)", "gaps no longer than (%)"};
+  PlotAxes a{lit_title(r, "Cumulative distribution of revisit gaps"), lit_label(r, "gap duration (min)"),
+             "gaps no longer than (%)"};
   a.y_min = 0.0;
   a.y_max = 100.0;
   a.x_min = 0.0;

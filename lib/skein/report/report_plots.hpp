@@ -25,6 +25,8 @@ struct MapContext {
 std::string coverage_map_svg(const Design& d, const CoverageResult& r, const MapContext& m);
 // Longest revisit gap per grid cell (s).
 std::string max_gap_map_svg(const Design& d, const CoverageResult& r, const MapContext& m);
+// The p95 age of the data per grid cell (s), cells without a downlinked observation blank. Requires data age.
+std::string data_age_map_svg(const Design& d, const CoverageResult& r, const MapContext& m);
 // Site grids: every site marked and named, coloured by its percent of time covered.
 std::string sites_map_svg(const Design& d, const CoverageResult& r, const MapContext& m);
 // Percent covered against latitude (band aggregates), one series per fold.

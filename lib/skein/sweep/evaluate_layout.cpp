@@ -49,6 +49,8 @@ CoverageOptions sweep_coverage_options(const Sweep& sweep, const LayoutEvaluatio
   c.max_fold = sweep.requirement.fold;
   c.mode = options.mode;
   c.force = options.force;
+  // The age of the data costs 1.1 to 1.6 times the coverage on a cell grid: only when the requirement judges it.
+  c.data_age = uses_data_age(sweep.requirement);
   return c;
 }
 

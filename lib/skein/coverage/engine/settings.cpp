@@ -57,7 +57,12 @@ CoverageWorkEstimate estimate(const Design& design, const CoverageSettings& st, 
   // opens the gap of exactly one fold, so all folds together hold at most one gap per pass, plus K open at the
   // start.
   const double fold_gaps = st.max_fold > 1 ? 8.0 * (passes + st.max_fold) + 8.0 * (st.max_fold - 1) : 0.0;
-  const double per_point = 160.0 + 16.0 * st.max_fold + 8.0 * in_view_bins + 4.0 * gaps + fold_gaps + 8.0 * std::max(1.0, cand);
+  // The age of the data (designs with ground stations, coverage/data_age.hpp): per point its histogram (sites
+  // 16 KiB, cells 1 KiB), sums and figures.
+  const bool age = !design.ground_stations.empty() && !st.spec.nadir_half_angle_deg;
+  const double age_bytes = !age ? 0.0 : (st.spec.grid == GridKind::sites ? 16384.0 : 1024.0) + 80.0;
+  const double per_point = 160.0 + 16.0 * st.max_fold + 8.0 * in_view_bins + 4.0 * gaps + fold_gaps +
+                           8.0 * std::max(1.0, cand) + age_bytes;
   const double chunk = mode == CoverageMode::exhaustive ? 0.0 : culled_scratch_bytes + 64.0 * 4.0 * (static_cast<double>(points) + 1.0);
   e.memory_bytes = static_cast<double>(points) * per_point * 2.0 + chunk + 70.0 * st.satellites * 112.0;  // satellite buffers, roughly
   e.seconds_2_cores = (3e-9 * e.pair_tests + 60e-9 * e.point_steps) / 2.0;
