@@ -71,6 +71,27 @@ std::optional<Threshold> threshold_on(const CoverageResult& r, std::initializer_
   return std::nullopt;
 }
 
+// The key of a map of durations (s) where shorter is better: 0 to the longest shown, or, with an upper-limit
+// threshold, the shortest and longest of the values and the threshold with a margin (5 % of the range, at
+// least 1 s), so the threshold sits inside the ramp and cells on both sides of it read apart.
+ColourKey seconds_key(std::string label, double lo, double hi, const std::optional<Threshold>& t,
+                      std::string threshold_label) {
+  ColourKey key;
+  key.label = std::move(label);
+  key.min = 0.0;
+  key.max = hi > 0 ? hi : 1.0;
+  key.higher_is_better = false;
+  if (t) {
+    const double top = std::max(hi, t->value), bottom = std::min(lo, t->value);
+    const double margin = std::max(1.0, 0.05 * (top - bottom));
+    key.threshold = t->value;
+    key.threshold_label = std::move(threshold_label);
+    key.min = std::max(0.0, bottom - margin);
+    key.max = top + margin;
+  }
+  return key;
+}
+
 // The fold a map shows: the requirement's when it judges the mapped figure, else 1; held to the folds evaluated.
 int shown_fold(const CoverageResult& r, bool judged) {
   const int k = judged && r.requirement ? r.requirement->fold : 1;
@@ -140,24 +161,13 @@ std::string max_gap_map_svg(const Design& d, const CoverageResult& r, const MapC
       lit_title(r, k > 1 ? fmt::format("Longest revisit gap at fold {}", k) : std::string("Longest revisit gap")), m);
   f.view = cell_view(d, r);
   f.cells = cells_of(r, [k](const PointCoverage& p) { return max_gap_at(p, k); });
-  double hi = 0;
-  for (const auto& c : f.cells) hi = std::max(hi, c.value);
-  ColourKey key;
-  key.label = lit_label(r, k > 1 ? fmt::format("longest gap with fewer than {} in view (s)", k) : std::string("longest gap (s)"));
-  key.min = 0.0;
-  key.max = hi > 0 ? hi : 1.0;
-  key.higher_is_better = false;
-  if (t) {
-    // As for the percent key: the values shown and the threshold, with a margin.
-    double lo = t->value, top = std::max(hi, t->value);
-    for (const auto& c : f.cells) lo = std::min(lo, c.value);
-    const double margin = std::max(1.0, 0.05 * (top - lo));
-    key.threshold = t->value;
-    key.threshold_label = fmt::format("required: at most {:g} s", t->value);
-    key.min = std::max(0.0, lo - margin);
-    key.max = top + margin;
+  double lo = 0.0, hi = 0.0;
+  for (size_t i = 0; i < f.cells.size(); ++i) {
+    lo = i == 0 ? f.cells[i].value : std::min(lo, f.cells[i].value);
+    hi = std::max(hi, f.cells[i].value);
   }
-  f.key = key;
+  f.key = seconds_key(lit_label(r, k > 1 ? fmt::format("longest gap with fewer than {} in view (s)", k) : std::string("longest gap (s)")),
+                      lo, hi, t, t ? fmt::format("required: at most {:g} s", t->value) : std::string());
   f.outlines = region_outline(d, r);
   return map_figure_svg(f);
 }
@@ -177,21 +187,9 @@ std::string data_age_map_svg(const Design& d, const CoverageResult& r, const Map
     lo = f.cells.size() == 1 ? a.p95_s : std::min(lo, a.p95_s);
     hi = std::max(hi, a.p95_s);
   }
-  ColourKey key;
-  key.label = lit_label(r, "p95 age of the data (s)");
-  key.min = 0.0;
-  key.max = hi > 0 ? hi : 1.0;
-  key.higher_is_better = false;
-  if (t) {
-    // The threshold judges the grid's area-weighted p95; the map shows which cells lie on which side of it.
-    const double top = std::max(hi, t->value), bottom = std::min(lo, t->value);
-    const double margin = std::max(1.0, 0.05 * (top - bottom));
-    key.threshold = t->value;
-    key.threshold_label = fmt::format("grid required: at most {:g} s", t->value);
-    key.min = std::max(0.0, bottom - margin);
-    key.max = top + margin;
-  }
-  f.key = key;
+  // The threshold judges the grid's area-weighted p95; the map shows which cells lie on which side of it.
+  f.key = seconds_key(lit_label(r, "p95 age of the data (s)"), lo, hi, t,
+                      t ? fmt::format("grid required: at most {:g} s", t->value) : std::string());
   f.outlines = region_outline(d, r);
   return map_figure_svg(f);
 }
