@@ -171,7 +171,18 @@ Table coverage_point_table(const CoverageResult& r) {
     t.columns.push_back({fmt::format("p95_gap_s_k{}", k), fmt::format("p95 gap k<{}", k), "s", 1});
     t.columns.push_back({fmt::format("mean_response_time_s_k{}", k), fmt::format("mean response k={}", k), "s", 1});
   }
-  for (const PointCoverage& p : r.points) {
+  // Age of the data per point (designs with ground stations): the point's own figures, as in data_age.*; empty
+  // where no observation reached the ground within the span.
+  if (r.data_age) {
+    for (Column c : std::vector<Column>{{"data_age_observations", "observations", "", 0},
+                                        {"data_age_censored", "not downlinked", "", 0},
+                                        {"mean_data_age_s", "mean data age", "s", 1},
+                                        {"p95_data_age_s", "p95 data age", "s", 1},
+                                        {"max_data_age_s", "max data age", "s", 1}})
+      t.columns.push_back(c);
+  }
+  for (size_t index = 0; index < r.points.size(); ++index) {
+    const PointCoverage& p = r.points[index];
     std::vector<Cell> row{p.point.name, p.point.lat_deg, p.point.lon_deg, p.point.height_km, p.point.area_weight};
     if (p.point.cell) {
       for (double v : {p.point.cell->lat_min_deg, p.point.cell->lat_max_deg, p.point.cell->lon_min_deg,
@@ -189,6 +200,16 @@ Table coverage_point_table(const CoverageResult& r) {
       row.emplace_back(p.gaps_by_fold[k].max_gap_s);
       row.emplace_back(p.gaps_by_fold[k].p95_gap_s);
       row.emplace_back(p.gaps_by_fold[k].mean_response_time_s);
+    }
+    if (r.data_age) {
+      const DataAgeFigures& a = r.data_age->per_point[index];
+      row.emplace_back(a.observations);
+      row.emplace_back(a.censored);
+      if (a.observations > a.censored) {
+        for (double v : {a.mean_s, a.p95_s, a.max_s}) row.emplace_back(v);
+      } else {
+        for (int j = 0; j < 3; ++j) row.emplace_back(std::monostate{});
+      }
     }
     t.add_row(std::move(row));
   }
