@@ -73,11 +73,9 @@ void scan_point(const EvaluationContext& sw, size_t p, long c0, long c1, Partial
           // each row's (narrower) outer angle, so every pair it tests is tested here too; 1e-9 keeps rounding
           // on the side of testing.
           {
-            const SatPos& u0 = prev[s];
-            const SatPos& u1 = sp[s];
-            const double c_w = swept_footprint_cos_from_widened(sw.sat_widened_cos[static_cast<size_t>(s)],
-                                                                u0.ux * u1.ux + u0.uy * u1.uy + u0.uz * u1.uz) - 1e-9;
-            if (cos_to(pg, u0) < c_w && cos_to(pg, u1) < c_w) continue;
+            const double c_w = swept_footprint_cos_from_half(sw.sat_widened_cos[static_cast<size_t>(s)],
+                                                             buf.step_pole[base + static_cast<size_t>(s)].half_cos) - 1e-9;
+            if (cos_to(pg, prev[s]) < c_w && cos_to(pg, sp[s]) < c_w) continue;
           }
           if (const auto pass = hidden_pass(pg, buf, step, s, sw.gm, sw.sat_sin_limit[static_cast<size_t>(s)], t0, t1)) {
             hidden.push_back({pass->rise_s, +1, 0});

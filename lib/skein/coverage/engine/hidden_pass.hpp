@@ -60,11 +60,17 @@ inline double widened_footprint_cos(double cos_lambda, double eps_rad) {
   const double s = std::sqrt(std::max(0.0, 1.0 - c * c));
   return c * std::cos(eps_rad) - s * std::sin(eps_rad);  // cos(lambda + eps)
 }
-inline double swept_footprint_cos_from_widened(double c_le, double cos_d) {
+// cos(D / 2) from cos D: it depends on the satellite and the step only (PositionBuffer::step_pole keeps it).
+inline double swept_half_cos(double cos_d) {
+  return std::sqrt(std::max(0.0, (1.0 + std::clamp(cos_d, -1.0, 1.0)) / 2.0));
+}
+inline double swept_footprint_cos_from_half(double c_le, double half) {
   if (c_le <= -1.0) return -1.0;
-  const double half = std::sqrt(std::max(0.0, (1.0 + std::clamp(cos_d, -1.0, 1.0)) / 2.0));  // cos(D / 2)
   const double out = c_le >= 0.0 ? c_le * half : c_le;  // past 90 deg the cap is a hemisphere or more: keep it
   return std::clamp(out - 1e-12, -1.0, 1.0);
+}
+inline double swept_footprint_cos_from_widened(double c_le, double cos_d) {
+  return swept_footprint_cos_from_half(c_le, swept_half_cos(cos_d));
 }
 inline double swept_footprint_cos(double cos_lambda, double eps_rad, double cos_d) {
   return swept_footprint_cos_from_widened(widened_footprint_cos(cos_lambda, eps_rad), cos_d);

@@ -1,5 +1,7 @@
 #include "skein/coverage/engine/position_buffer.hpp"
 
+#include "skein/coverage/engine/hidden_pass.hpp"
+
 #include <algorithm>
 #include <cmath>
 #include <numeric>
@@ -59,7 +61,7 @@ void fill_positions(PositionBuffer& buf, const std::vector<SecularOrbit>& orbits
       }
     }
   });
-  // The poles of every satellite's step arc (hidden_pass in path_events.cpp), both modes.
+  // The poles and half-arc cosines of every satellite's step arc (hidden_pass.hpp), both modes.
   tbb::parallel_for(tbb::blocked_range<long>(1, std::max(1L, buf.count)), [&](const tbb::blocked_range<long>& r) {
     for (long l = r.begin(); l < r.end(); ++l) {
       const long step = buf.first + l;
@@ -67,7 +69,8 @@ void fill_positions(PositionBuffer& buf, const std::vector<SecularOrbit>& orbits
         const SatPos& q0 = buf.pos[buf.at(step - 1, s)];
         const SatPos& q1 = buf.pos[buf.at(step, s)];
         const double nx = q0.uy * q1.uz - q0.uz * q1.uy, ny = q0.uz * q1.ux - q0.ux * q1.uz, nz = q0.ux * q1.uy - q0.uy * q1.ux;
-        buf.step_pole[buf.at(step, s)] = {nx, ny, nz, std::sqrt(nx * nx + ny * ny + nz * nz)};
+        buf.step_pole[buf.at(step, s)] = {nx, ny, nz, std::sqrt(nx * nx + ny * ny + nz * nz),
+                                          swept_half_cos(q0.ux * q1.ux + q0.uy * q1.uy + q0.uz * q1.uz)};
       }
     }
   });

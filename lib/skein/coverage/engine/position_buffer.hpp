@@ -10,11 +10,13 @@
 
 namespace skein::coverage_engine {
 
-// Satellite positions (Earth-fixed) for a window of sample instants.
-// The pole of a satellite's step arc (see PositionBuffer::step_pole).
+// The pole of a satellite's step arc and the cosine of half the arc (see PositionBuffer::step_pole).
 struct StepPole {
   double nx, ny, nz, norm;
+  double half_cos;  // cos(D / 2), D the angle between the ground directions at the step's two instants
 };
+
+// Satellite positions (Earth-fixed) for a window of sample instants.
 
 struct PositionBuffer {
   long first = 0, count = 0;
@@ -31,8 +33,9 @@ struct PositionBuffer {
   double swept_reach_rad = 0.0;
   // Both modes: per satellite and instant t_j (j after the buffer's first), n = u(t_{j-1}) x u(t_j) and |n|,
   // the pole of the great circle through the satellite's ground directions at the step's two instants, for the
-  // hidden-pass cross-track test (path_events.cpp). Computed once per satellite and step instead of once per
-  // (point, satellite, step); the same numbers for both modes, so both make the same decisions.
+  // hidden-pass cross-track test (path_events.cpp), and cos(D / 2) for the footprint swept over the step
+  // (hidden_pass.hpp). Computed once per satellite and step instead of once per (point or row, satellite,
+  // step); the same numbers for both modes, so both make the same decisions.
   std::vector<StepPole> step_pole;  // [local * sats + s]; unset for the buffer's first instant
   // Culled mode only: per instant, the satellites sorted by geocentric latitude.
   std::vector<int> by_lat;

@@ -122,9 +122,7 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
         // The windows swept over the step (hidden passes): the outer angle at the satellite's largest radius,
         // widened for its motion between the instants. They hold the outer windows of both instants.
         apogee_outer(sw.sat_r_apo_km[su]);
-        const SatPos& u0 = buf.pos[buf.at(step - 1, s)];
-        const SatPos& u1 = sp1[s];
-        const double c_w = swept_footprint_cos_from_widened(widened_apo, u0.ux * u1.ux + u0.uy * u1.uy + u0.uz * u1.uz);
+        const double c_w = swept_footprint_cos_from_half(widened_apo, buf.step_pole[buf.at(step, s)].half_cos);
         const double sin_limit = sin_limit_apo;
         const double h1w = row_half_width(row.sin_psi, row.cos_psi, x1.sin_psi, x1.cos_psi, c_w, true);
         const double h0w = row_half_width(row.sin_psi, row.cos_psi, x0.sin_psi, x0.cos_psi, c_w, true);
@@ -333,14 +331,6 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
       }
     }
     if (open_list.empty()) continue;
-    int mid = -1;
-    const auto row_mid = [&]() {
-      if (mid < 0) {
-        const double* zs = &buf.by_lat_sin[buf.at(step, 0)];
-        mid = static_cast<int>(std::lower_bound(zs, zs + sw.T, row.sin_psi) - zs);
-      }
-      return mid;
-    };
     for (const std::uint32_t i : open_list) {
       open[i] = 1;
       std::fill_n(&top[i * static_cast<size_t>(K)], K, -2.0);
@@ -364,6 +354,7 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
         for_window(row, x.lon, h, near);
       }
     }
+    int mid = -1;
     for (const std::uint32_t i : open_list) {
       open[i] = 0;
       next_due.push_back(i);
@@ -372,7 +363,11 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
       int* ts = &top_sat[i * static_cast<size_t>(K)];
       if (tp[K - 1] < sw.search_cos) {
         ++acc.fallbacks;
-        acc.distance_tests += nearest_by_latitude(sw.geo[p], buf, step, K, tp, ts, row_mid());
+        if (mid < 0) {
+          const double* zs = &buf.by_lat_sin[buf.at(step, 0)];
+          mid = static_cast<int>(std::lower_bound(zs, zs + sw.T, row.sin_psi) - zs);
+        }
+        acc.distance_tests += nearest_by_latitude(sw.geo[p], buf, step, K, tp, ts, mid);
       }
       std::copy(ts, ts + K, &sw.nearest[p * static_cast<size_t>(K)]);
       double* wc = &sw.worst_cos[p * static_cast<size_t>(K)];
