@@ -1,5 +1,6 @@
 #include "skein/report/coverage_tables.hpp"
 
+#include <cassert>
 #include <cctype>
 
 #include <fmt/format.h>
@@ -7,6 +8,12 @@
 #include "skein/coverage/requirement_check.hpp"
 
 namespace skein {
+
+std::string lit_title_text(const std::string& title) {
+  assert(!title.empty());
+  return "Lit " + std::string(1, static_cast<char>(std::tolower(static_cast<unsigned char>(title[0])))) + title.substr(1);
+}
+
 namespace {
 
 // A point's label for a table: its site name, or "lat LAT lon LON" of a grid cell's centre (deg).
@@ -25,9 +32,8 @@ void add_fold_percent_columns(Table& t, int max_fold) {
 // The JSON keys and CSV headers stay the same; coverage_json records the threshold beside them.
 Table lit(Table t, const CoverageResult& r) {
   if (!r.min_sun_elevation_deg) return t;
-  t.title = fmt::format("Lit {} [lit: in view with the Sun at least {:g} deg above the point's horizon]",
-                        t.title.empty() ? std::string("coverage") : std::string(1, static_cast<char>(std::tolower(t.title[0]))) + t.title.substr(1),
-                        *r.min_sun_elevation_deg);
+  t.title = fmt::format("{} [lit: in view with the Sun at least {:g} deg above the point's horizon]",
+                        lit_title_text(t.title.empty() ? std::string("coverage") : t.title), *r.min_sun_elevation_deg);
   for (Column& c : t.columns) {
     const std::string& h = c.heading;
     for (const char* word : {"covered", "gap", "response", "in view", "pass", "worst"})

@@ -9,6 +9,10 @@
 
 namespace skein {
 
+// A title for lit coverage (the daylight mask): "Lit " and the title with its first letter lowered, as every
+// coverage table and plot title reads with the mask. The title must not be empty.
+std::string lit_title_text(const std::string& title);
+
 // One row: grid points and the area-weighted whole-grid figures.
 Table coverage_overview_table(const CoverageResult& r);
 // One row per fold k = 1..K: percent of time covered, worst instantaneous covered area, the least-covered

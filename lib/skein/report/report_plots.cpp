@@ -2,7 +2,6 @@
 
 #include <algorithm>
 #include <cassert>
-#include <cctype>
 #include <cmath>
 #include <optional>
 #include <limits>
@@ -14,6 +13,7 @@
 #include "skein/coverage/ground_geometry.hpp"
 #include "skein/design/constellation.hpp"
 #include "skein/orbit/ground_track.hpp"
+#include "skein/report/coverage_tables.hpp"
 #include "skein/report/map_plot.hpp"
 #include "skein/report/svg_plot.hpp"
 
@@ -23,8 +23,7 @@ namespace {
 // With the daylight mask every coverage figure counts lit coverage (coverage_tables.cpp, lit): a plot's title
 // then starts with "Lit" as the tables' titles do, and a key or axis label of a coverage figure reads "lit".
 std::string lit_title(const CoverageResult& r, const std::string& title) {
-  if (!r.min_sun_elevation_deg || title.empty()) return title;
-  return "Lit " + std::string(1, static_cast<char>(std::tolower(static_cast<unsigned char>(title[0])))) + title.substr(1);
+  return r.min_sun_elevation_deg && !title.empty() ? lit_title_text(title) : title;
 }
 std::string lit_label(const CoverageResult& r, const std::string& label) {
   return r.min_sun_elevation_deg ? "lit " + label : label;
