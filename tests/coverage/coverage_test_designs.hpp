@@ -5,6 +5,10 @@
 #include <fmt/format.h>
 
 #include "skein/input/design_file.hpp"
+#include "skein/constants.hpp"
+#include "skein/time/epoch.hpp"
+#include "skein/orbit/propagate.hpp"
+#include "skein/time/sun.hpp"
 
 namespace skein::test {
 
@@ -24,6 +28,15 @@ inline std::string walker_shell(int t, int p, int f, double altitude_km, double 
   return fmt::format("shells:\n  - name: w\n    pattern: walker-delta\n    satellites: {}\n    planes: {}\n    phasing: {}\n"
                      "    altitude_km: {}\n    inclination_deg: {}\n",
                      t, p, f, altitude_km, inclination_deg);
+}
+
+// The brute-force scans' Sun: its unit direction in the Earth-fixed frame t seconds after `epoch`, from the
+// low-precision almanac (time/sun.hpp), turned by the sidereal angle theta (rad) the scan uses for the
+// satellites, so Sun and satellites share one frame.
+inline Eigen::Vector3d scan_sun_earth_fixed(const JulianDate& epoch, double t, double theta) {
+  JulianDate jd = epoch;
+  jd.fraction += t / seconds_per_day;
+  return inertial_to_earth_fixed(sun_position(jd).unit_eci, theta);
 }
 
 }  // namespace skein::test

@@ -102,9 +102,7 @@ TEST_CASE("data age: sites with daylight against a brute-force scan of passes an
   for (long j = 0; j < n; ++j) {
     const double t = static_cast<double>(j);
     const double theta = theta0 + d.earth.rotation_rad_s * t;
-    JulianDate jd = epoch;
-    jd.fraction += t / seconds_per_day;
-    const Eigen::Vector3d sun = inertial_to_earth_fixed(sun_position(jd).unit_eci, theta);
+    const Eigen::Vector3d sun = test::scan_sun_earth_fixed(epoch, t, theta);
     for (size_t s = 0; s < T; ++s) {
       const Eigen::Vector3d pos = earth_fixed_state_at(d.earth, orbits[s], theta, t).r_km;
       for (size_t i = 0; i < 2; ++i)
@@ -200,9 +198,7 @@ std::vector<BruteAge> brute_force_ages(const Design& d, const CoverageResult& r)
   for (long j = 0; j < n; ++j) {
     const double t = static_cast<double>(j);
     const double theta = theta0 + d.earth.rotation_rad_s * t;
-    JulianDate jd = epoch;
-    jd.fraction += t / seconds_per_day;
-    const Eigen::Vector3d sun = inertial_to_earth_fixed(sun_position(jd).unit_eci, theta);
+    const Eigen::Vector3d sun = test::scan_sun_earth_fixed(epoch, t, theta);
     for (size_t s = 0; s < T; ++s) {
       const Eigen::Vector3d pos = earth_fixed_state_at(d.earth, orbits[s], theta, t).r_km;
       for (size_t p = 0; p < P; ++p) {

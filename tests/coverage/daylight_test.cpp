@@ -174,9 +174,7 @@ TEST_CASE("daylight: lit coverage of sites against a brute-force scan of satelli
   for (long j = 0; j < n; ++j) {
     const double t = static_cast<double>(j);
     const double theta = theta0 + d.earth.rotation_rad_s * t;
-    JulianDate jd = epoch;
-    jd.fraction += t / seconds_per_day;
-    const Eigen::Vector3d sun = inertial_to_earth_fixed(sun_position(jd).unit_eci, theta);
+    const Eigen::Vector3d sun = test::scan_sun_earth_fixed(epoch, t, theta);
     std::vector<Eigen::Vector3d> pos(T);
     for (size_t s = 0; s < T; ++s) pos[s] = earth_fixed_state_at(d.earth, orbits[s], theta, t).r_km;
     for (size_t i = 0; i < S; ++i) {
