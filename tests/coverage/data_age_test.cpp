@@ -7,6 +7,8 @@
 #include <random>
 #include <vector>
 
+#include <fmt/format.h>
+
 #include "coverage_test_designs.hpp"
 #include "skein/constants.hpp"
 #include "skein/coverage/data_age.hpp"
@@ -18,6 +20,35 @@
 #include "skein/time/sun.hpp"
 
 using namespace skein;
+
+namespace {
+
+// The design `text` with its THRESHOLD placeholder set to `threshold_s` (17 significant digits: the double
+// itself), evaluated.
+CoverageResult with_threshold(const std::string& text, double threshold_s) {
+  std::string s = text;
+  s.replace(s.find("THRESHOLD"), 9, fmt::format("{:.17g}", threshold_s));
+  return evaluate_coverage(read_design_text(s, "req.yaml"));
+}
+
+// The max_p95_data_age_s verdict against the grid's own p95 (the figure the check reads, requirement_check.cpp;
+// met when the figure is at most the threshold): far above (40000 s, above any age in a 12 h span) and exactly
+// at the p95 it is met; one representable step below the p95 and at 1 s it fails. Returns the loose run.
+CoverageResult check_p95_verdict(const std::string& text) {
+  const CoverageResult loose = with_threshold(text, 40000.0);
+  REQUIRE(loose.data_age.has_value());
+  REQUIRE(loose.requirement.has_value());
+  const double p95 = loose.data_age->total.p95_s;
+  CHECK(loose.requirement->checks.front().value == p95);
+  CHECK(p95 > 1.0);
+  CHECK(loose.requirement->met);
+  CHECK(with_threshold(text, p95).requirement->met);
+  CHECK(!with_threshold(text, std::nextafter(p95, 0.0)).requirement->met);
+  CHECK(!with_threshold(text, 1.0).requirement->met);
+  return loose;
+}
+
+}  // namespace
 
 TEST_CASE("data age: the histogram p95 is the nearest-rank p95, high by less than one bin") {
   // Reference: the nearest-rank 95th percentile (the ceil(0.95 n)-th smallest) of the sorted sample, as the
@@ -150,18 +181,7 @@ TEST_CASE("data age: a max_p95_data_age_s requirement is judged on the grid's p9
       "  min_elevation_deg: 15\n  span_h: 12\n  step_s: 60\n  max_fold: 1\n"
       "  requirement:\n    max_p95_data_age_s: THRESHOLD\n"
       "ground_stations:\n  - {name: North Rig, lat_deg: 70, lon_deg: 20, min_elevation_deg: 5}\n";
-  const auto with = [&](const std::string& v) {
-    std::string s = text;
-    s.replace(s.find("THRESHOLD"), 9, v);
-    return evaluate_coverage(read_design_text(s, "req.yaml"));
-  };
-  const CoverageResult loose = with("40000"), tight = with("1");
-  REQUIRE(loose.data_age.has_value());
-  REQUIRE(loose.requirement.has_value());
-  CHECK(loose.requirement->checks.front().value == loose.data_age->total.p95_s);
-  CHECK(loose.data_age->total.p95_s > 1.0);
-  CHECK(loose.requirement->met);
-  CHECK(!tight.requirement->met);
+  check_p95_verdict(text);
 }
 
 namespace {
@@ -398,19 +418,7 @@ TEST_CASE("data age: a max_p95_data_age_s requirement on a region grid is judged
       "coverage:\n  grid:\n    kind: region\n    spacing_deg: 5\n    vertices: [[-10, 35], [10, 35], [10, 55], [-10, 55]]\n"
       "  min_elevation_deg: 15\n  span_h: 12\n  step_s: 60\n  max_fold: 1\n"
       "  requirement:\n    max_p95_data_age_s: THRESHOLD\n" + std::string(two_stations);
-  const auto with = [&](const std::string& v) {
-    std::string s = text;
-    s.replace(s.find("THRESHOLD"), 9, v);
-    return evaluate_coverage(read_design_text(s, "req.yaml"));
-  };
-  const CoverageResult loose = with("40000"), tight = with("1");
-  REQUIRE(loose.data_age.has_value());
-  REQUIRE(loose.requirement.has_value());
-  CHECK(loose.points.size() == 16);
-  CHECK(loose.requirement->checks.front().value == loose.data_age->total.p95_s);
-  CHECK(loose.data_age->total.p95_s > 1.0);
-  CHECK(loose.requirement->met);
-  CHECK(!tight.requirement->met);
+  CHECK(check_p95_verdict(text).points.size() == 16);
 }
 
 TEST_CASE("data age: computed unless the options leave it out, as a sweep does without a data-age requirement") {
