@@ -96,6 +96,42 @@ TEST_CASE("row index: an arc across the antimeridian visits every point on it on
   for (int v : visits) CHECK(v <= 1);
 }
 
+TEST_CASE("row index: for_listed visits the listed points for_window visits, each once, and no other") {
+  // Brute force: for_window on every point, filtered by membership of the list, against the binary-search
+  // walk of for_listed, on a periodic row and on an uneven (non-periodic) one, windows across the antimeridian
+  // and wider than the row.
+  for (const bool periodic : {true, false}) {
+    Row row;
+    row.periodic = periodic;
+    const int n = 180;
+    for (int k = 0; k < n; ++k) {
+      const double lon_deg = periodic ? -179.0 + 2.0 * k : -179.0 + 2.0 * k + 0.7 * std::sin(k);  // uneven
+      row.lon.push_back(lon_deg * rad_per_deg);
+      row.point.push_back(k);
+    }
+    row.lon0 = row.lon.front();
+    row.per_rad = n / two_pi;
+    row.guess_scale = (n - 1) / (row.lon.back() - row.lon.front());
+    std::vector<std::uint32_t> listed;
+    for (int k = 0; k < n; k += 1 + (k % 7)) listed.push_back(static_cast<std::uint32_t>(k));  // ascending
+    for (double centre_deg : {0.0, 179.0, -179.5, 181.0, 540.0}) {
+      for (double half_deg : {0.5, 7.0, 95.0, 200.0}) {
+        CAPTURE(periodic);
+        CAPTURE(centre_deg);
+        CAPTURE(half_deg);
+        std::vector<int> expect(n, 0), got(n, 0);
+        const double lon = centre_deg * rad_per_deg, h = half_deg * rad_per_deg;
+        for_window(row, lon, h, [&](long i) {
+          if (std::binary_search(listed.begin(), listed.end(), static_cast<std::uint32_t>(i))) ++expect[static_cast<size_t>(i)];
+        });
+        for_listed(row, listed, lon, h, [&](long i) { ++got[static_cast<size_t>(i)]; });
+        CHECK(got == expect);
+        for (int v : got) CHECK(v <= 1);
+      }
+    }
+  }
+}
+
 TEST_CASE("timeline: integrals and gaps of a hand-made event list") {
   // One point, span 0..100 s, out of view at the start. Events: rise at 10, rise at 20, set at 30, set at 45,
   // rise at 70, set at 70.5. In view: 0 on [0,10), 1 on [10,20), 2 on [20,30), 1 on [30,45), 0 on [45,70),

@@ -164,8 +164,11 @@ CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan,
     }
   }
 
-  // Instants per chunk: 64 (exhaustive) or culled_chunk, fewer when the satellite buffers would pass the budget.
+  // Instants per chunk: 64 (exhaustive) or about culled_cache_bytes of buffer (culled), fewer when the satellite
+  // buffers would pass the budget.
   const double bytes_per_instant = static_cast<double>(T) * (sizeof(SatPos) + sizeof(SatVel) + 3.0 * sizeof(SatAux) + 20.0);
+  const long culled_chunk =
+      std::clamp(static_cast<long>(culled_cache_bytes / bytes_per_instant), culled_chunk_min, culled_chunk_max);
   const long chunk = std::clamp(static_cast<long>(buffer_budget_bytes / bytes_per_instant) - 1, 1L, exhaustive ? 64L : culled_chunk);
 
   std::vector<PointState> state(P);

@@ -6,6 +6,12 @@
 #include <cstdint>
 #include <cmath>
 #include <numeric>
+#include <optional>
+
+#include <tbb/blocked_range.h>
+#include <tbb/enumerable_thread_specific.h>
+#include <tbb/parallel_for.h>
+#include <tbb/parallel_invoke.h>
 
 namespace skein::coverage_engine {
 
@@ -228,33 +234,45 @@ void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointSta
   res.points.resize(P);
   res.required_radius_deg.assign(static_cast<size_t>(K), 0.0);
   res.in_view_fraction.assign(in_view_bins, 0.0);
-  for (size_t p = 0; p < P; ++p) {
-    PointState& ps = state[p];
-    PointCoverage& pc = res.points[p];
-    pc.point = grid.points[p];
-    // Time with at least k in view: the bins above k - 1, summed from the top.
-    double at_least[max_fold_limit];
-    {
-      const double* h = &hist[p * in_view_bins];
-      double above = 0.0;
-      for (int n = in_view_bins - 1; n >= 1; --n) {
-        above += h[n];
-        if (n <= K) at_least[n - 1] = above;
+  // Each point's figures depend on that point alone, so they are made in parallel; the sums over points
+  // below run in point order, as before, so the totals keep their bits whatever the threads.
+  tbb::parallel_for(tbb::blocked_range<size_t>(0, P, 256), [&](const tbb::blocked_range<size_t>& range) {
+    for (size_t p = range.begin(); p < range.end(); ++p) {
+      const PointState& ps = state[p];
+      PointCoverage& pc = res.points[p];
+      pc.point = grid.points[p];
+      // Time with at least k in view: the bins above k - 1, summed from the top.
+      double at_least[max_fold_limit];
+      {
+        const double* h = &hist[p * in_view_bins];
+        double above = 0.0;
+        for (int n = in_view_bins - 1; n >= 1; --n) {
+          above += h[n];
+          if (n <= K) at_least[n - 1] = above;
+        }
       }
+      pc.percent_by_fold.resize(static_cast<size_t>(K));
+      pc.radius_deg_by_fold.resize(static_cast<size_t>(K));
+      pc.gaps_by_fold.resize(static_cast<size_t>(K));
+      for (int k = 0; k < K; ++k) {
+        const size_t ku = static_cast<size_t>(k);
+        pc.percent_by_fold[ku] = 100.0 * at_least[k] / smp.span;
+        pc.radius_deg_by_fold[ku] = std::acos(std::clamp(worst_cos[p * static_cast<size_t>(K) + ku], -1.0, 1.0)) * deg_per_rad;
+        pc.gaps_by_fold[ku] = point_gap_figures(gaps_at(ps, k + 1), smp.span);
+      }
+      set_fold1_figures(pc, pc.gaps_by_fold.front());
+      pc.mean_in_view = ps.count_time / smp.span;
+      pc.max_in_view = ps.max_in_view;
+      pc.passes = ps.passes;
+      // The time integral of the count in view is the sum of the passes' durations (within the span).
+      pc.mean_pass_s = ps.passes > 0 ? ps.count_time / static_cast<double>(ps.passes) : 0.0;
     }
-    for (int k = 0; k < K; ++k) {
-      pc.percent_by_fold.push_back(100.0 * at_least[k] / smp.span);
-      const double rd = std::acos(std::clamp(worst_cos[p * static_cast<size_t>(K) + static_cast<size_t>(k)], -1.0, 1.0)) * deg_per_rad;
-      pc.radius_deg_by_fold.push_back(rd);
-      res.required_radius_deg[static_cast<size_t>(k)] = std::max(res.required_radius_deg[static_cast<size_t>(k)], rd);
-    }
-    for (int k = 1; k <= K; ++k) pc.gaps_by_fold.push_back(point_gap_figures(gaps_at(ps, k), smp.span));
-    set_fold1_figures(pc, pc.gaps_by_fold.front());
-    pc.mean_in_view = ps.count_time / smp.span;
-    pc.max_in_view = ps.max_in_view;
-    pc.passes = ps.passes;
-    // The time integral of the count in view is the sum of the passes' durations (within the span).
-    pc.mean_pass_s = ps.passes > 0 ? ps.count_time / static_cast<double>(ps.passes) : 0.0;
+  });
+  for (size_t p = 0; p < P; ++p) {
+    const PointCoverage& pc = res.points[p];
+    for (int k = 0; k < K; ++k)
+      res.required_radius_deg[static_cast<size_t>(k)] =
+          std::max(res.required_radius_deg[static_cast<size_t>(k)], pc.radius_deg_by_fold[static_cast<size_t>(k)]);
     for (int n = 0; n < in_view_bins; ++n)
       res.in_view_fraction[static_cast<size_t>(n)] += pc.point.area_weight * hist[p * in_view_bins + static_cast<size_t>(n)] / smp.span;
   }
@@ -273,31 +291,33 @@ void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointSta
     res.worst_instant_covered_percent.push_back(
         total_q > 0 ? 100.0 * static_cast<double>(worst_q[static_cast<size_t>(k)]) / static_cast<double>(total_q) : 0.0);
 
-  // One pool of (gap, weight) for every aggregate, sized once for the largest (all points' gaps, every fold).
-  std::vector<std::pair<float, double>> pooled;
-  {
-    size_t n = 0;
-    for (const PointState& ps : state) n += ps.gaps.size() + ps.fold_gaps.size();
-    pooled.reserve(n);
-  }
-  std::vector<size_t> all(P);
-  std::iota(all.begin(), all.end(), 0);
-  res.total = aggregate(res.points, all, state, K, 1.0, pooled);
+  // The whole grid, each latitude band and the pooled gap quantiles are independent of each other: made side by
+  // side, each aggregate with a pool of (gap, weight) of its own thread, and stored in band order.
   const int nbands = static_cast<int>(std::lround(180.0 / band_width_deg));
   std::vector<std::vector<size_t>> members(static_cast<size_t>(nbands));
   for (size_t p = 0; p < P; ++p) {
     const int b = std::clamp(static_cast<int>(std::floor((grid.points[p].lat_deg + 90.0) / band_width_deg)), 0, nbands - 1);
     members[static_cast<size_t>(b)].push_back(p);
   }
-  for (int b = 0; b < nbands; ++b) {
-    if (members[static_cast<size_t>(b)].empty()) continue;
-    LatitudeBand band;
-    band.lat_min_deg = -90.0 + b * band_width_deg;
-    band.lat_max_deg = band.lat_min_deg + band_width_deg;
-    band.metrics = aggregate(res.points, members[static_cast<size_t>(b)], state, K, 1.0, pooled);
-    res.bands.push_back(std::move(band));
-  }
-  res.gap_quantiles_s = gap_cdf(state, grid);
+  std::vector<size_t> all(P);
+  std::iota(all.begin(), all.end(), 0);
+  tbb::enumerable_thread_specific<std::vector<std::pair<float, double>>> pools;
+  std::vector<std::optional<LatitudeBand>> bands(static_cast<size_t>(nbands));
+  tbb::parallel_invoke(
+      [&] { res.total = aggregate(res.points, all, state, K, 1.0, pools.local()); },
+      [&] { res.gap_quantiles_s = gap_cdf(state, grid); },
+      [&] {
+        tbb::parallel_for(0, nbands, [&](int b) {
+          if (members[static_cast<size_t>(b)].empty()) return;
+          LatitudeBand band;
+          band.lat_min_deg = -90.0 + b * band_width_deg;
+          band.lat_max_deg = band.lat_min_deg + band_width_deg;
+          band.metrics = aggregate(res.points, members[static_cast<size_t>(b)], state, K, 1.0, pools.local());
+          bands[static_cast<size_t>(b)] = std::move(band);
+        });
+      });
+  for (auto& band : bands)
+    if (band) res.bands.push_back(std::move(*band));
 }
 
 }  // namespace skein::coverage_engine

@@ -2,6 +2,7 @@
 // Grid rows for footprint culling and the index arithmetic that turns longitude windows into point spans.
 #include <algorithm>
 #include <cmath>
+#include <cstdint>
 #include <optional>
 #include <vector>
 
@@ -53,9 +54,18 @@ inline long row_upper_bound(const Row& row, double x) {
   return k;
 }
 
+// The visits below are made in ranges: g(k0, k1) for the indices k0 <= k < k1 (0 <= k0 < k1 <= n), and the
+// for_ functions call f(k) for each k of each range in turn. A caller that needs only some points of a row
+// (for_listed) looks them up per range instead of stepping over the rest.
 template <class F>
 void for_row(const Row& row, F&& f) {
   for (long k = 0, n = static_cast<long>(row.lon.size()); k < n; ++k) f(k);
+}
+template <class F>
+auto each_index(F& f) {
+  return [&f](long k0, long k1) {
+    for (long k = k0; k < k1; ++k) f(k);
+  };
 }
 
 // On a periodic row, points are counted round the circle without end: index k stands for point k mod n.
@@ -78,27 +88,27 @@ inline long ceil_long(double x) {
 inline IndexSpan periodic_span(const Row& row, double a, double b) {
   return {ceil_long((a - row.lon0) * row.per_rad - 1e-6), floor_long((b - row.lon0) * row.per_rad + 1e-6) + 1};
 }
-// Call f(i) once for each point of the span (the whole row once when the span is n or longer).
-template <class F>
-void for_span(const Row& row, long first, long last, F&& f) {
+// The ranges of the points of the span, each point once (the whole row once when the span is n or longer).
+template <class G>
+void span_ranges(const Row& row, long first, long last, G&& g) {
   const long n = static_cast<long>(row.lon.size());
-  if (last - first >= n) return for_row(row, f);
-  if (last <= first) return;
+  if (n == 0 || last <= first) return;
+  if (last - first >= n) return g(0, n);
   long k0 = first % n;
   if (k0 < 0) k0 += n;
   const long end = k0 + (last - first);
-  for (long k = k0, e = std::min(n, end); k < e; ++k) f(k);
-  for (long k = 0; k < end - n; ++k) f(k);
+  g(k0, std::min(n, end));
+  if (end > n) g(0, end - n);
 }
 
 // Call f(i) for the row points whose longitude lies on the arc from a to b (rad, b - a < 2 pi, any real a),
 // with each end open or closed (on a periodic row, a superset: the span of both ends closed and widened).
 // Each point is visited at most once.
-template <class F>
-void for_arc(const Row& row, double a, double b, bool open_a, bool open_b, F&& f) {
+template <class G>
+void arc_ranges(const Row& row, double a, double b, bool open_a, bool open_b, G&& g) {
   if (row.periodic) {
     const IndexSpan sp = periodic_span(row, a, b);
-    return for_span(row, sp.first, sp.last, f);
+    return span_ranges(row, sp.first, sp.last, g);
   }
   const double shift = two_pi * std::floor((a + pi) * (1.0 / two_pi));
   a -= shift;  // now in [-pi, pi)
@@ -107,40 +117,61 @@ void for_arc(const Row& row, double a, double b, bool open_a, bool open_b, F&& f
   const auto hi = [&](double x) { return open_b ? row_lower_bound(row, x) : row_upper_bound(row, x); };
   const long n = static_cast<long>(row.lon.size());
   if (b < pi) {
-    for (long k = lo(a), e = hi(b); k < e; ++k) f(k);
+    const long k0 = lo(a), e = hi(b);
+    if (k0 < e) g(k0, e);
   } else {
-    for (long k = lo(a); k < n; ++k) f(k);
-    for (long k = 0, e = hi(b - two_pi); k < e; ++k) f(k);
+    const long k0 = lo(a), e = hi(b - two_pi);
+    if (k0 < n) g(k0, n);
+    if (0 < e) g(0, e);
   }
+}
+template <class F>
+void for_arc(const Row& row, double a, double b, bool open_a, bool open_b, F&& f) {
+  arc_ranges(row, a, b, open_a, open_b, each_index(f));
 }
 
 // Call f(i) for the points on the arcs [a1, b1) and (a2, b2], with a1 <= b1 <= a2 <= b2 and b2 - a1 < 2 pi
 // (on a periodic row, a superset), each point at most once.
 template <class F>
 void for_two_arcs(const Row& row, double a1, double b1, double a2, double b2, F&& f) {
+  const auto g = each_index(f);
   if (!row.periodic) {
-    for_arc(row, a1, b1, false, true, f);
-    for_arc(row, a2, b2, true, false, f);
+    arc_ranges(row, a1, b1, false, true, g);
+    arc_ranges(row, a2, b2, true, false, g);
     return;
   }
   const long n = static_cast<long>(row.lon.size());
   const IndexSpan s1 = periodic_span(row, a1, b1);
   IndexSpan s2 = periodic_span(row, a2, b2);
   if (s1.last - s1.first >= n) return for_row(row, f);
-  if (s1.last >= s2.first) return for_span(row, s1.first, std::max(s1.last, s2.last), f);  // the widened spans meet
+  if (s1.last >= s2.first) return span_ranges(row, s1.first, std::max(s1.last, s2.last), g);  // the widened spans meet
   s2.last = std::min(s2.last, s1.first + n);  // nor may the second come round onto the first
-  for_span(row, s1.first, s1.last, f);
-  for_span(row, s2.first, s2.last, f);
+  span_ranges(row, s1.first, s1.last, g);
+  span_ranges(row, s2.first, s2.last, g);
 }
 
 // Call f(i) for the row points within half-width h (rad, >= 0; >= pi: the whole row) of longitude lon.
+template <class G>
+void window_ranges(const Row& row, double lon, double h, G&& g) {
+  if (h >= pi) {
+    if (!row.lon.empty()) g(0, static_cast<long>(row.lon.size()));
+  } else {
+    arc_ranges(row, lon - h, lon + h, false, false, g);
+  }
+}
 template <class F>
 void for_window(const Row& row, double lon, double h, F&& f) {
-  if (h >= pi) {
-    for_row(row, f);
-  } else {
-    for_arc(row, lon - h, lon + h, false, false, f);
-  }
+  window_ranges(row, lon, h, each_index(f));
+}
+
+// Call f(i) for the points of `listed` (row indices, ascending) within half-width h of longitude lon: the same
+// points as for_window restricted to the list, found per range by binary search, so the cost follows the list.
+template <class F>
+void for_listed(const Row& row, const std::vector<std::uint32_t>& listed, double lon, double h, F&& f) {
+  window_ranges(row, lon, h, [&](long k0, long k1) {
+    auto it = std::lower_bound(listed.begin(), listed.end(), static_cast<std::uint32_t>(k0));
+    for (; it != listed.end() && static_cast<long>(*it) < k1; ++it) f(static_cast<long>(*it));
+  });
 }
 
 

@@ -16,11 +16,9 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
   const PositionBuffer& buf = sw.buf;
   CrossingBatch& crossings = scratch.crossings;
   std::vector<Event>& sorted = scratch.sorted;
-  std::vector<std::uint32_t>& start = scratch.start;
   std::vector<int>& count = scratch.count;
   std::vector<double>& top = scratch.top;
   std::vector<int>& top_sat = scratch.top_sat;
-  std::vector<char>& open = scratch.open;
   WindowCache& cache = scratch.cache;
   // Footprint cosines of the last orbit radius seen on this row, made good for radii within 1 mm of it (the
   // outer cosine of the largest radius, the inner of the smallest: both bounds shrink the safe side only,
@@ -64,7 +62,6 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
   std::vector<std::uint32_t>& open_list = scratch.open_list;
   wake_head.assign(static_cast<size_t>(c1 - c0 + 1), -1);
   wake_next.assign(n, -1);
-  open.assign(n, 0);
   top.assign(n * static_cast<size_t>(K), -2.0);
   top_sat.assign(n * static_cast<size_t>(K), -1);
   next_due.resize(n);
@@ -210,54 +207,40 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
       }
       if (crossings.n > 0 || !scratch.hidden.empty()) {
         crossings.solve(t0, t1);
-        // Group the events by point, each point's few events in time (event_before). Few events against the
-        // row's points: one sort of the events by (point, time); many: a counting sort by point (stable), then
-        // each point's run in time. Both give every point the same sequence of (time, delta): events equal in
-        // both are interchangeable.
-        const Event* events = crossings.event.data();
-        const Event* events_end = events + crossings.n;
-        const Event* extra = scratch.hidden.data();
-        const Event* extra_end = extra + scratch.hidden.size();
+        // Group the events by point, each point's few events in time (event_before): each event is linked to
+        // the previous one of its point, the points with events are listed as they first appear, and each
+        // point's run is gathered, put in time order and applied. O(events) work, whatever the row's length;
+        // events equal in time and sign are interchangeable, and the points' order changes no sum (the
+        // covered weights are integers).
         const size_t m = crossings.n + scratch.hidden.size();
         acc.events += static_cast<std::int64_t>(m);
-        const auto apply_run = [&](std::uint32_t i, Event* eb, Event* ee) {
+        std::vector<int>& head = scratch.head;
+        std::vector<int>& link = scratch.link;
+        std::vector<std::uint32_t>& touched = scratch.touched;
+        if (head.size() < n) head.assign(n, -1);
+        link.resize(m);
+        touched.clear();
+        const auto event_at = [&](size_t k) -> const Event& {
+          return k < crossings.n ? crossings.event[k] : scratch.hidden[k - crossings.n];
+        };
+        for (size_t k = 0; k < m; ++k) {
+          const std::uint32_t i = event_at(k).point;
+          if (head[i] < 0) touched.push_back(i);
+          link[k] = head[i];
+          head[i] = static_cast<int>(k);
+        }
+        for (const std::uint32_t i : touched) {
+          sorted.clear();
+          for (int k = head[i]; k >= 0; k = link[static_cast<size_t>(k)]) sorted.push_back(event_at(static_cast<size_t>(k)));
+          head[i] = -1;
+          Event* eb = sorted.data();
+          Event* ee = eb + sorted.size();
+          sort_short(eb, ee);
           const size_t p = static_cast<size_t>(row.point[i]);
           PointState& ps = sw.state[p];
           const int before = ps.count;
           apply_events(ps, sw.sums(p), eb, ee, t0, t1);
           add_covered(acc, ls, K, before, ps.count, sw.weight_q[p]);
-        };
-        if (m * 8 < n) {
-          sorted.assign(events, events_end);
-          sorted.insert(sorted.end(), extra, extra_end);
-          std::sort(sorted.begin(), sorted.end(), [](const Event& x, const Event& y) {
-            return x.point != y.point ? x.point < y.point : event_before(x, y);
-          });
-          for (size_t g0 = 0; g0 < m;) {
-            size_t g1 = g0 + 1;
-            while (g1 < m && sorted[g1].point == sorted[g0].point) ++g1;
-            apply_run(sorted[g0].point, sorted.data() + g0, sorted.data() + g1);
-            g0 = g1;
-          }
-        } else {
-          start.assign(n + 1, 0);
-          for (const Event* e = events; e != events_end; ++e) ++start[e->point + 1];
-          for (const Event* e = extra; e != extra_end; ++e) ++start[e->point + 1];
-          for (size_t i = 0; i < n; ++i) start[i + 1] += start[i];
-          sorted.resize(m);
-          for (const Event* e = events; e != events_end; ++e) sorted[start[e->point]++] = *e;
-          for (const Event* e = extra; e != extra_end; ++e) sorted[start[e->point]++] = *e;
-          // start[i] is now the end of point i's run.
-          std::uint32_t begin = 0;
-          for (size_t i = 0; i < n; ++i) {
-            const std::uint32_t end = start[i];
-            if (end == begin) continue;
-            Event* eb = sorted.data() + begin;
-            Event* ee = sorted.data() + end;
-            sort_short(eb, ee);
-            apply_run(static_cast<std::uint32_t>(i), eb, ee);
-            begin = end;
-          }
         }
       }
       // Daylight mask: the changes of daylight up to t_j of every point of the row, with or without events.
@@ -331,8 +314,9 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
       }
     }
     if (open_list.empty()) continue;
+    // In row order, so each satellite's window finds its open points by binary search (for_listed).
+    std::sort(open_list.begin(), open_list.end());
     for (const std::uint32_t i : open_list) {
-      open[i] = 1;
       std::fill_n(&top[i * static_cast<size_t>(K)], K, -2.0);
       std::fill_n(&top_sat[i * static_cast<size_t>(K)], K, -1);
     }
@@ -346,17 +330,15 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
         if (h < 0.0) continue;
         const SatPos& q = sp1[s];
         const auto near = [&](long i) {
-          if (!open[static_cast<size_t>(i)]) return;
           ++acc.distance_tests;
           const size_t o = static_cast<size_t>(i) * static_cast<size_t>(K);
           insert_top_sat(&top[o], &top_sat[o], K, cos_to(sw.geo[static_cast<size_t>(row.point[static_cast<size_t>(i)])], q), s);
         };
-        for_window(row, x.lon, h, near);
+        for_listed(row, open_list, x.lon, h, near);
       }
     }
     int mid = -1;
     for (const std::uint32_t i : open_list) {
-      open[i] = 0;
       next_due.push_back(i);
       const size_t p = static_cast<size_t>(row.point[i]);
       double* tp = &top[i * static_cast<size_t>(K)];

@@ -19,12 +19,14 @@ struct WindowCache {
 // Scratch of one worker thread in culled mode, kept across rows and chunks.
 struct RowScratch {
   CrossingBatch crossings;
-  std::vector<Event> sorted;
-  std::vector<std::uint32_t> start;
+  std::vector<Event> sorted;  // one point's events of a step, put in time order
+  // The grouping of a step's events by point: per point the last event linked (-1: none; all -1 between
+  // steps), per event the previous one of its point, and the points with events in order of first appearance.
+  std::vector<int> head, link;
+  std::vector<std::uint32_t> touched;
   std::vector<int> count;
   std::vector<double> top;
   std::vector<int> top_sat;
-  std::vector<char> open;
   WindowCache cache;
   std::vector<Event> hidden;  // rises and sets of passes found between two instants, this step
   // The nearest search's due points (row_sweep.cpp): wake lists by step, and the points due now and next.

@@ -19,10 +19,14 @@ constexpr double vertical_deflection_rad = 0.2 * rad_per_deg;
 constexpr double cull_margin_rad = 0.25 * rad_per_deg;
 // Scratch memory of culled mode, a bound used by the work estimate.
 constexpr double culled_scratch_bytes = 8e7;
-// Sample instants held at once: at most 64 (exhaustive) or 16 (culled, whose row sweep reads the buffer once
-// per row, so it should stay in cache), fewer for very large constellations (about 256 MB of buffers).
+// Sample instants held at once: at most 64 (exhaustive) or, in culled mode, as many as fill about 1 MiB of
+// buffer (the row sweep reads the buffer once per row, so it should stay in a core's cache; 1 MiB is this
+// machine's L2 per core, a usual size), between 16 and 256 instants; fewer for very large constellations
+// (about 256 MB of buffers). Only speed depends on the chunk: each step's work reads instants j-1 and j alone,
+// and a point's remembered nearest satellites carry over from one chunk to the next.
 constexpr double buffer_budget_bytes = 2.56e8;
-constexpr long culled_chunk = 16;
+constexpr double culled_cache_bytes = 1048576.0;
+constexpr long culled_chunk_min = 16, culled_chunk_max = 256;
 // Area weights in integer units: the weight share times 2^53 (exact sums in any order).
 constexpr double weight_units = 9007199254740992.0;
 
