@@ -304,7 +304,14 @@ void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointSta
   tbb::enumerable_thread_specific<std::vector<std::pair<float, double>>> pools;
   std::vector<std::optional<LatitudeBand>> bands(static_cast<size_t>(nbands));
   tbb::parallel_invoke(
-      [&] { res.total = aggregate(res.points, all, state, K, 1.0, pools.local()); },
+      [&] {
+        // The whole grid's pool holds every gap at every fold: sized once.
+        std::vector<std::pair<float, double>>& pool = pools.local();
+        size_t gaps = 0;
+        for (const PointState& ps : state) gaps += ps.gaps.size() + ps.fold_gaps.size();
+        pool.reserve(gaps);
+        res.total = aggregate(res.points, all, state, K, 1.0, pool);
+      },
       [&] { res.gap_quantiles_s = gap_cdf(state, grid); },
       [&] {
         tbb::parallel_for(0, nbands, [&](int b) {

@@ -164,13 +164,13 @@ void for_window(const Row& row, double lon, double h, F&& f) {
   window_ranges(row, lon, h, each_index(f));
 }
 
-// Call f(i) for the points of `listed` (row indices, ascending) within half-width h of longitude lon: the same
-// points as for_window restricted to the list, found per range by binary search, so the cost follows the list.
+// Call f(i) for the marked points within half-width h of longitude lon: the same points as for_window
+// restricted to the marked ones. `next_marked` has n + 1 entries: entry k is the first marked index >= k (n:
+// none), so each range goes from one marked point to the next without looking at the others.
 template <class F>
-void for_listed(const Row& row, const std::vector<std::uint32_t>& listed, double lon, double h, F&& f) {
+void for_marked(const Row& row, const std::vector<std::uint32_t>& next_marked, double lon, double h, F&& f) {
   window_ranges(row, lon, h, [&](long k0, long k1) {
-    auto it = std::lower_bound(listed.begin(), listed.end(), static_cast<std::uint32_t>(k0));
-    for (; it != listed.end() && static_cast<long>(*it) < k1; ++it) f(static_cast<long>(*it));
+    for (long k = next_marked[static_cast<size_t>(k0)]; k < k1; k = next_marked[static_cast<size_t>(k) + 1]) f(k);
   });
 }
 

@@ -32,6 +32,8 @@ struct RowScratch {
   // The nearest search's due points (row_sweep.cpp): wake lists by step, and the points due now and next.
   std::vector<int> wake_head, wake_next;
   std::vector<std::uint32_t> due, next_due, open_list;
+  std::vector<std::uint32_t> next_open;  // per index the next open point at or after it (for_marked)
+  std::vector<char> open_flag;           // the open points of a step, while next_open is made (all 0 between)
 };
 
 // Culled mode: row number r of `rows_total` over the instants [c0, c1) of the buffer (row_sweep.cpp).
