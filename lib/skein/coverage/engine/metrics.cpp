@@ -6,7 +6,6 @@
 #include <cstdint>
 #include <cmath>
 #include <numeric>
-#include <optional>
 
 #include <tbb/blocked_range.h>
 #include <tbb/enumerable_thread_specific.h>
@@ -109,9 +108,32 @@ void set_fold1_figures(Target& t, const GapFigures& f1) {
 
 }  // namespace
 
+std::vector<PooledGaps> pooled_gaps(const Grid& grid, const std::vector<size_t>& members,
+                                    const std::vector<PointState>& state, int K,
+                                    std::vector<std::pair<float, double>>& pooled) {
+  std::vector<PooledGaps> out(static_cast<size_t>(K));
+  for (int k = 1; k <= K; ++k) {
+    PooledGaps& f = out[static_cast<size_t>(k - 1)];
+    double gap_sum = 0.0, gap_weight = 0.0;
+    pooled.clear();
+    for (size_t i : members) {
+      const double pw = grid.points[i].area_weight;
+      for_each_gap(state[i], k, [&](float g) {
+        gap_sum += pw * g;
+        gap_weight += pw;
+        pooled.emplace_back(g, pw);
+      });
+    }
+    if (gap_weight > 0.0) {
+      f.mean_gap_s = gap_sum / gap_weight;
+      f.p95_gap_s = weighted_quantile(pooled, 0.95);
+    }
+  }
+  return out;
+}
+
 CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::vector<size_t>& members,
-                            const std::vector<PointState>& state, int K, double total_weight,
-                            std::vector<std::pair<float, double>>& pooled) {
+                            const std::vector<PooledGaps>& pooled, int K, double total_weight) {
   CoverageAggregate a;
   a.percent_by_fold.assign(static_cast<size_t>(K), 0.0);
   a.gaps_by_fold.assign(static_cast<size_t>(K), GapFigures{});
@@ -132,26 +154,16 @@ CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::ve
   }
   for (int k = 1; k <= K; ++k) {
     GapFigures& f = a.gaps_by_fold[static_cast<size_t>(k - 1)];
-    double gap_sum = 0.0, gap_weight = 0.0;
-    pooled.clear();
     for (size_t i : members) {
       const PointCoverage& p = pts[i];
-      const double pw = p.point.area_weight;
       const GapFigures& pf = p.gaps_by_fold[static_cast<size_t>(k - 1)];
       f.max_gap_s = std::max(f.max_gap_s, pf.max_gap_s);
       f.gap_count += pf.gap_count;
-      f.mean_response_time_s += pw * pf.mean_response_time_s;
-      for_each_gap(state[i], k, [&](float g) {
-        gap_sum += pw * g;
-        gap_weight += pw;
-        pooled.emplace_back(g, pw);
-      });
+      f.mean_response_time_s += p.point.area_weight * pf.mean_response_time_s;
     }
     if (w > 0.0) f.mean_response_time_s /= w;
-    if (gap_weight > 0.0) {
-      f.mean_gap_s = gap_sum / gap_weight;
-      f.p95_gap_s = weighted_quantile(pooled, 0.95);
-    }
+    f.mean_gap_s = pooled[static_cast<size_t>(k - 1)].mean_gap_s;
+    f.p95_gap_s = pooled[static_cast<size_t>(k - 1)].p95_gap_s;
   }
   set_fold1_figures(a, a.gaps_by_fold.front());
   return a;
@@ -234,40 +246,72 @@ void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointSta
   res.points.resize(P);
   res.required_radius_deg.assign(static_cast<size_t>(K), 0.0);
   res.in_view_fraction.assign(in_view_bins, 0.0);
-  // Each point's figures depend on that point alone, so they are made in parallel; the sums over points
-  // below run in point order, as before, so the totals keep their bits whatever the threads.
-  tbb::parallel_for(tbb::blocked_range<size_t>(0, P, 256), [&](const tbb::blocked_range<size_t>& range) {
-    for (size_t p = range.begin(); p < range.end(); ++p) {
-      const PointState& ps = state[p];
-      PointCoverage& pc = res.points[p];
-      pc.point = grid.points[p];
-      // Time with at least k in view: the bins above k - 1, summed from the top.
-      double at_least[max_fold_limit];
-      {
-        const double* h = &hist[p * in_view_bins];
-        double above = 0.0;
-        for (int n = in_view_bins - 1; n >= 1; --n) {
-          above += h[n];
-          if (n <= K) at_least[n - 1] = above;
-        }
-      }
-      pc.percent_by_fold.resize(static_cast<size_t>(K));
-      pc.radius_deg_by_fold.resize(static_cast<size_t>(K));
-      pc.gaps_by_fold.resize(static_cast<size_t>(K));
-      for (int k = 0; k < K; ++k) {
-        const size_t ku = static_cast<size_t>(k);
-        pc.percent_by_fold[ku] = 100.0 * at_least[k] / smp.span;
-        pc.radius_deg_by_fold[ku] = std::acos(std::clamp(worst_cos[p * static_cast<size_t>(K) + ku], -1.0, 1.0)) * deg_per_rad;
-        pc.gaps_by_fold[ku] = point_gap_figures(gaps_at(ps, k + 1), smp.span);
-      }
-      set_fold1_figures(pc, pc.gaps_by_fold.front());
-      pc.mean_in_view = ps.count_time / smp.span;
-      pc.max_in_view = ps.max_in_view;
-      pc.passes = ps.passes;
-      // The time integral of the count in view is the sum of the passes' durations (within the span).
-      pc.mean_pass_s = ps.passes > 0 ? ps.count_time / static_cast<double>(ps.passes) : 0.0;
-    }
-  });
+  // Each point's figures depend on that point alone, and the pooled gap figures of the grid and of each
+  // latitude band, and the grid's gap quantiles, on the gaps alone: all made side by side (each pool of
+  // (gap, weight) its own thread's; the pooled figures take no lock and wait on nothing, so a thread runs one at
+  // a time). The sums over points below run in point order, as before, so the totals keep their bits whatever
+  // the threads.
+  const int nbands = static_cast<int>(std::lround(180.0 / band_width_deg));
+  std::vector<std::vector<size_t>> members(static_cast<size_t>(nbands));
+  for (size_t p = 0; p < P; ++p) {
+    const int b = std::clamp(static_cast<int>(std::floor((grid.points[p].lat_deg + 90.0) / band_width_deg)), 0, nbands - 1);
+    members[static_cast<size_t>(b)].push_back(p);
+  }
+  std::vector<size_t> all(P);
+  std::iota(all.begin(), all.end(), 0);
+  tbb::enumerable_thread_specific<std::vector<std::pair<float, double>>> pools;
+  std::vector<PooledGaps> total_pooled;
+  std::vector<std::vector<PooledGaps>> band_pooled(static_cast<size_t>(nbands));
+  tbb::parallel_invoke(
+      [&] {
+        tbb::parallel_for(tbb::blocked_range<size_t>(0, P, 256), [&](const tbb::blocked_range<size_t>& range) {
+          for (size_t p = range.begin(); p < range.end(); ++p) {
+            const PointState& ps = state[p];
+            PointCoverage& pc = res.points[p];
+            pc.point = grid.points[p];
+            // Time with at least k in view: the bins above k - 1, summed from the top.
+            double at_least[max_fold_limit];
+            {
+              const double* h = &hist[p * in_view_bins];
+              double above = 0.0;
+              for (int n = in_view_bins - 1; n >= 1; --n) {
+                above += h[n];
+                if (n <= K) at_least[n - 1] = above;
+              }
+            }
+            pc.percent_by_fold.resize(static_cast<size_t>(K));
+            pc.radius_deg_by_fold.resize(static_cast<size_t>(K));
+            pc.gaps_by_fold.resize(static_cast<size_t>(K));
+            for (int k = 0; k < K; ++k) {
+              const size_t ku = static_cast<size_t>(k);
+              pc.percent_by_fold[ku] = 100.0 * at_least[k] / smp.span;
+              pc.radius_deg_by_fold[ku] = std::acos(std::clamp(worst_cos[p * static_cast<size_t>(K) + ku], -1.0, 1.0)) * deg_per_rad;
+              pc.gaps_by_fold[ku] = point_gap_figures(gaps_at(ps, k + 1), smp.span);
+            }
+            set_fold1_figures(pc, pc.gaps_by_fold.front());
+            pc.mean_in_view = ps.count_time / smp.span;
+            pc.max_in_view = ps.max_in_view;
+            pc.passes = ps.passes;
+            // The time integral of the count in view is the sum of the passes' durations (within the span).
+            pc.mean_pass_s = ps.passes > 0 ? ps.count_time / static_cast<double>(ps.passes) : 0.0;
+          }
+        });
+      },
+      [&] {
+        // The whole grid's pool holds every gap at every fold: sized once.
+        std::vector<std::pair<float, double>>& pool = pools.local();
+        size_t gaps = 0;
+        for (const PointState& ps : state) gaps += ps.gaps.size() + ps.fold_gaps.size();
+        pool.reserve(gaps);
+        total_pooled = pooled_gaps(grid, all, state, K, pool);
+      },
+      [&] { res.gap_quantiles_s = gap_cdf(state, grid); },
+      [&] {
+        tbb::parallel_for(0, nbands, [&](int b) {
+          if (!members[static_cast<size_t>(b)].empty())
+            band_pooled[static_cast<size_t>(b)] = pooled_gaps(grid, members[static_cast<size_t>(b)], state, K, pools.local());
+        });
+      });
   for (size_t p = 0; p < P; ++p) {
     const PointCoverage& pc = res.points[p];
     for (int k = 0; k < K; ++k)
@@ -291,40 +335,15 @@ void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointSta
     res.worst_instant_covered_percent.push_back(
         total_q > 0 ? 100.0 * static_cast<double>(worst_q[static_cast<size_t>(k)]) / static_cast<double>(total_q) : 0.0);
 
-  // The whole grid, each latitude band and the pooled gap quantiles are independent of each other: made side by
-  // side, each aggregate with a pool of (gap, weight) of its own thread, and stored in band order.
-  const int nbands = static_cast<int>(std::lround(180.0 / band_width_deg));
-  std::vector<std::vector<size_t>> members(static_cast<size_t>(nbands));
-  for (size_t p = 0; p < P; ++p) {
-    const int b = std::clamp(static_cast<int>(std::floor((grid.points[p].lat_deg + 90.0) / band_width_deg)), 0, nbands - 1);
-    members[static_cast<size_t>(b)].push_back(p);
+  res.total = aggregate(res.points, all, total_pooled, K, 1.0);
+  for (int b = 0; b < nbands; ++b) {
+    if (members[static_cast<size_t>(b)].empty()) continue;
+    LatitudeBand band;
+    band.lat_min_deg = -90.0 + b * band_width_deg;
+    band.lat_max_deg = band.lat_min_deg + band_width_deg;
+    band.metrics = aggregate(res.points, members[static_cast<size_t>(b)], band_pooled[static_cast<size_t>(b)], K, 1.0);
+    res.bands.push_back(std::move(band));
   }
-  std::vector<size_t> all(P);
-  std::iota(all.begin(), all.end(), 0);
-  tbb::enumerable_thread_specific<std::vector<std::pair<float, double>>> pools;
-  std::vector<std::optional<LatitudeBand>> bands(static_cast<size_t>(nbands));
-  tbb::parallel_invoke(
-      [&] {
-        // The whole grid's pool holds every gap at every fold: sized once.
-        std::vector<std::pair<float, double>>& pool = pools.local();
-        size_t gaps = 0;
-        for (const PointState& ps : state) gaps += ps.gaps.size() + ps.fold_gaps.size();
-        pool.reserve(gaps);
-        res.total = aggregate(res.points, all, state, K, 1.0, pool);
-      },
-      [&] { res.gap_quantiles_s = gap_cdf(state, grid); },
-      [&] {
-        tbb::parallel_for(0, nbands, [&](int b) {
-          if (members[static_cast<size_t>(b)].empty()) return;
-          LatitudeBand band;
-          band.lat_min_deg = -90.0 + b * band_width_deg;
-          band.lat_max_deg = band.lat_min_deg + band_width_deg;
-          band.metrics = aggregate(res.points, members[static_cast<size_t>(b)], state, K, 1.0, pools.local());
-          bands[static_cast<size_t>(b)] = std::move(band);
-        });
-      });
-  for (auto& band : bands)
-    if (band) res.bands.push_back(std::move(*band));
 }
 
 }  // namespace skein::coverage_engine

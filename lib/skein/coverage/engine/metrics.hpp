@@ -13,10 +13,18 @@ namespace skein::coverage_engine {
 // The weighted quantile q of a sample in any order (reordered in place): the smallest value whose cumulative
 // weight, in ascending order of value, reaches q of the total. Expected O(n) (quickselect); 0 when empty.
 double weighted_quantile(std::vector<std::pair<float, double>>& sample, double q);
-// Area-weighted aggregate of the points `members` (metrics.cpp). `pooled` is scratch for the gap samples.
+// The pooled gap figures of a set of points at fold k = 1..K (entry k - 1): the area-weighted mean of all their
+// gaps and the area-weighted 95th percentile of the pool (weighted_quantile); zero without gaps. `pooled` is
+// scratch for the (gap, weight) pool.
+struct PooledGaps {
+  double mean_gap_s = 0.0, p95_gap_s = 0.0;
+};
+std::vector<PooledGaps> pooled_gaps(const Grid& grid, const std::vector<size_t>& members,
+                                    const std::vector<PointState>& state, int K,
+                                    std::vector<std::pair<float, double>>& pooled);
+// Area-weighted aggregate of the points `members` (metrics.cpp), with their pooled gap figures.
 CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::vector<size_t>& members,
-                            const std::vector<PointState>& state, int K, double total_weight,
-                            std::vector<std::pair<float, double>>& pooled);
+                            const std::vector<PooledGaps>& pooled, int K, double total_weight);
 // The 0, 1, ..., 100 % area-weighted quantiles of every point's fold-1 gaps (empty when there are none): the
 // value where the cumulative weight of the gaps in ascending order first reaches q of the total, as a walk
 // over the sorted gaps gives it, but without sorting them all: the weights are summed into buckets of the

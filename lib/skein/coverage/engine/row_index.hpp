@@ -1,6 +1,7 @@
 #pragma once
 // Grid rows for footprint culling and the index arithmetic that turns longitude windows into point spans.
 #include <algorithm>
+#include <bit>
 #include <cmath>
 #include <cstdint>
 #include <optional>
@@ -165,12 +166,21 @@ void for_window(const Row& row, double lon, double h, F&& f) {
 }
 
 // Call f(i) for the marked points within half-width h of longitude lon: the same points as for_window
-// restricted to the marked ones. `next_marked` has n + 1 entries: entry k is the first marked index >= k (n:
-// none), so each range goes from one marked point to the next without looking at the others.
+// restricted to the marked ones. `marked` is a bit set of the row's indices (bit k % 64 of word k / 64), so each
+// range is read a word of 64 points at a time and only the marked points are visited.
 template <class F>
-void for_marked(const Row& row, const std::vector<std::uint32_t>& next_marked, double lon, double h, F&& f) {
+void for_marked(const Row& row, const std::vector<std::uint64_t>& marked, double lon, double h, F&& f) {
   window_ranges(row, lon, h, [&](long k0, long k1) {
-    for (long k = next_marked[static_cast<size_t>(k0)]; k < k1; k = next_marked[static_cast<size_t>(k) + 1]) f(k);
+    const size_t w0 = static_cast<size_t>(k0) >> 6, w1 = static_cast<size_t>(k1 - 1) >> 6;
+    for (size_t w = w0; w <= w1; ++w) {
+      std::uint64_t bits = marked[w];
+      if (w == w0) bits &= ~std::uint64_t{0} << (static_cast<unsigned>(k0) & 63u);
+      if (w == w1) bits &= ~std::uint64_t{0} >> (63u - (static_cast<unsigned>(k1 - 1) & 63u));
+      while (bits != 0) {
+        f(static_cast<long>(w * 64 + static_cast<size_t>(std::countr_zero(bits))));
+        bits &= bits - 1;
+      }
+    }
   });
 }
 

@@ -60,7 +60,7 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
   std::vector<std::uint32_t>& due = scratch.due;
   std::vector<std::uint32_t>& next_due = scratch.next_due;
   std::vector<std::uint32_t>& open_list = scratch.open_list;
-  std::vector<std::uint32_t>& next_open = scratch.next_open;
+  std::vector<std::uint64_t>& open_bits = scratch.open_bits;
   wake_head.assign(static_cast<size_t>(c1 - c0 + 1), -1);
   wake_next.assign(n, -1);
   top.assign(n * static_cast<size_t>(K), -2.0);
@@ -315,21 +315,9 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
       }
     }
     if (open_list.empty()) continue;
-    // A table of the next open point at or after each index, so each satellite's window steps from one open
-    // point to the next (for_marked); the open points listed again from it, in row order.
-    {
-      std::vector<char>& flag = scratch.open_flag;  // all 0 between uses
-      if (flag.size() < n) flag.assign(n, 0);
-      for (const std::uint32_t i : open_list) flag[i] = 1;
-      next_open.resize(n + 1);
-      next_open[n] = static_cast<std::uint32_t>(n);
-      for (size_t k = n; k-- > 0;) next_open[k] = flag[k] ? static_cast<std::uint32_t>(k) : next_open[k + 1];
-      open_list.clear();
-      for (std::uint32_t k = next_open[0]; k < n; k = next_open[k + 1]) {
-        open_list.push_back(k);
-        flag[k] = 0;
-      }
-    }
+    // The open points as a bit set, so each satellite's window visits only them (for_marked); cleared below.
+    open_bits.resize((n + 63) / 64, 0);
+    for (const std::uint32_t i : open_list) open_bits[i >> 6] |= std::uint64_t{1} << (i & 63u);
     for (const std::uint32_t i : open_list) {
       std::fill_n(&top[i * static_cast<size_t>(K)], K, -2.0);
       std::fill_n(&top_sat[i * static_cast<size_t>(K)], K, -1);
@@ -348,11 +336,12 @@ void sweep_row(const EvaluationContext& sw, const Row& row, long r, long rows_to
           const size_t o = static_cast<size_t>(i) * static_cast<size_t>(K);
           insert_top_sat(&top[o], &top_sat[o], K, cos_to(sw.geo[static_cast<size_t>(row.point[static_cast<size_t>(i)])], q), s);
         };
-        for_marked(row, next_open, x.lon, h, near);
+        for_marked(row, open_bits, x.lon, h, near);
       }
     }
     int mid = -1;
     for (const std::uint32_t i : open_list) {
+      open_bits[i >> 6] = 0;
       next_due.push_back(i);
       const size_t p = static_cast<size_t>(row.point[i]);
       double* tp = &top[i * static_cast<size_t>(K)];

@@ -32,8 +32,7 @@ struct RowScratch {
   // The nearest search's due points (row_sweep.cpp): wake lists by step, and the points due now and next.
   std::vector<int> wake_head, wake_next;
   std::vector<std::uint32_t> due, next_due, open_list;
-  std::vector<std::uint32_t> next_open;  // per index the next open point at or after it (for_marked)
-  std::vector<char> open_flag;           // the open points of a step, while next_open is made (all 0 between)
+  std::vector<std::uint64_t> open_bits;  // the open points of a step as a bit set (for_marked; all 0 between)
 };
 
 // Culled mode: row number r of `rows_total` over the instants [c0, c1) of the buffer (row_sweep.cpp).
