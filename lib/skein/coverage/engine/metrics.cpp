@@ -110,10 +110,11 @@ void set_fold1_figures(Target& t, const GapFigures& f1) {
 
 std::vector<PooledGaps> pooled_gaps(const Grid& grid, const std::vector<size_t>& members,
                                     const std::vector<PointState>& state, int K,
-                                    std::vector<std::pair<float, double>>& pooled) {
+                                    std::vector<std::pair<float, double>>& pooled, const std::vector<double>* fold1_cdf) {
   std::vector<PooledGaps> out(static_cast<size_t>(K));
   for (int k = 1; k <= K; ++k) {
     PooledGaps& f = out[static_cast<size_t>(k - 1)];
+    const bool pool = k > 1 || fold1_cdf == nullptr;
     double gap_sum = 0.0, gap_weight = 0.0;
     pooled.clear();
     for (size_t i : members) {
@@ -121,12 +122,12 @@ std::vector<PooledGaps> pooled_gaps(const Grid& grid, const std::vector<size_t>&
       for_each_gap(state[i], k, [&](float g) {
         gap_sum += pw * g;
         gap_weight += pw;
-        pooled.emplace_back(g, pw);
+        if (pool) pooled.emplace_back(g, pw);
       });
     }
     if (gap_weight > 0.0) {
       f.mean_gap_s = gap_sum / gap_weight;
-      f.p95_gap_s = weighted_quantile(pooled, 0.95);
+      f.p95_gap_s = pool ? weighted_quantile(pooled, 0.95) : (*fold1_cdf)[95];
     }
   }
   return out;
@@ -298,18 +299,20 @@ void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointSta
         });
       },
       [&] {
-        // The whole grid's pool holds every gap at every fold: sized once.
+        // The whole grid: its fold-1 95th percentile is the gap quantiles' (the same rule over the same
+        // gaps), so its pool holds the gaps of folds 2..K only.
+        res.gap_quantiles_s = gap_cdf(state, grid);
         std::vector<std::pair<float, double>>& pool = pools.local();
         size_t gaps = 0;
-        for (const PointState& ps : state) gaps += ps.gaps.size() + ps.fold_gaps.size();
+        for (const PointState& ps : state) gaps += ps.fold_gaps.size();
         pool.reserve(gaps);
-        total_pooled = pooled_gaps(grid, all, state, K, pool);
+        total_pooled = pooled_gaps(grid, all, state, K, pool, &res.gap_quantiles_s);
       },
-      [&] { res.gap_quantiles_s = gap_cdf(state, grid); },
       [&] {
         tbb::parallel_for(0, nbands, [&](int b) {
           if (!members[static_cast<size_t>(b)].empty())
-            band_pooled[static_cast<size_t>(b)] = pooled_gaps(grid, members[static_cast<size_t>(b)], state, K, pools.local());
+            band_pooled[static_cast<size_t>(b)] =
+                pooled_gaps(grid, members[static_cast<size_t>(b)], state, K, pools.local(), nullptr);
         });
       });
   for (size_t p = 0; p < P; ++p) {

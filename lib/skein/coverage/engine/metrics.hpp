@@ -15,13 +15,15 @@ namespace skein::coverage_engine {
 double weighted_quantile(std::vector<std::pair<float, double>>& sample, double q);
 // The pooled gap figures of a set of points at fold k = 1..K (entry k - 1): the area-weighted mean of all their
 // gaps and the area-weighted 95th percentile of the pool (weighted_quantile); zero without gaps. `pooled` is
-// scratch for the (gap, weight) pool.
+// scratch for the (gap, weight) pool. With `fold1_cdf` (gap_cdf of the same points) the fold-1 percentile is
+// its 95 % entry, which follows the same rule (the smallest gap whose cumulative weight reaches 0.95 of the
+// total, less 1e-12 of it), and no fold-1 pool is made.
 struct PooledGaps {
   double mean_gap_s = 0.0, p95_gap_s = 0.0;
 };
 std::vector<PooledGaps> pooled_gaps(const Grid& grid, const std::vector<size_t>& members,
                                     const std::vector<PointState>& state, int K,
-                                    std::vector<std::pair<float, double>>& pooled);
+                                    std::vector<std::pair<float, double>>& pooled, const std::vector<double>* fold1_cdf);
 // Area-weighted aggregate of the points `members` (metrics.cpp), with their pooled gap figures.
 CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::vector<size_t>& members,
                             const std::vector<PooledGaps>& pooled, int K, double total_weight);
