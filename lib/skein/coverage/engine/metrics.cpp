@@ -65,16 +65,8 @@ void for_each_gap(const PointState& ps, int k, F&& f) {
     if (g.fold == k) f(g.length_s);
 }
 
-// The gaps of one point at fold k, copied (for the per-point figures, which sort them).
-std::vector<float> gaps_at(const PointState& ps, int k) {
-  if (k == 1) return ps.gaps;
-  std::vector<float> out;
-  for_each_gap(ps, k, [&](float g) { out.push_back(g); });
-  return out;
-}
-
-// The figures of one point's gaps over a span of `span_s`.
-GapFigures point_gap_figures(std::vector<float> gaps, double span_s) {
+// The figures of one point's gaps over a span of `span_s` (sorts `gaps`).
+GapFigures point_gap_figures(std::vector<float>& gaps, double span_s) {
   GapFigures f;
   f.gap_count = static_cast<long>(gaps.size());
   if (gaps.empty()) return f;
@@ -266,6 +258,7 @@ void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointSta
   tbb::parallel_invoke(
       [&] {
         tbb::parallel_for(tbb::blocked_range<size_t>(0, P, 256), [&](const tbb::blocked_range<size_t>& range) {
+          std::vector<float> gaps;  // one point's gaps at one fold, reused over the range
           for (size_t p = range.begin(); p < range.end(); ++p) {
             const PointState& ps = state[p];
             PointCoverage& pc = res.points[p];
@@ -287,7 +280,9 @@ void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointSta
               const size_t ku = static_cast<size_t>(k);
               pc.percent_by_fold[ku] = 100.0 * at_least[k] / smp.span;
               pc.radius_deg_by_fold[ku] = std::acos(std::clamp(worst_cos[p * static_cast<size_t>(K) + ku], -1.0, 1.0)) * deg_per_rad;
-              pc.gaps_by_fold[ku] = point_gap_figures(gaps_at(ps, k + 1), smp.span);
+              gaps.clear();
+              for_each_gap(ps, k + 1, [&](float g) { gaps.push_back(g); });
+              pc.gaps_by_fold[ku] = point_gap_figures(gaps, smp.span);
             }
             set_fold1_figures(pc, pc.gaps_by_fold.front());
             pc.mean_in_view = ps.count_time / smp.span;
