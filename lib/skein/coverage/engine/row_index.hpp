@@ -57,7 +57,7 @@ inline long row_upper_bound(const Row& row, double x) {
 
 // The visits below are made in ranges: g(k0, k1) for the indices k0 <= k < k1 (0 <= k0 < k1 <= n), and the
 // for_ functions call f(k) for each k of each range in turn. A caller that needs only some points of a row
-// (for_listed) looks them up per range instead of stepping over the rest.
+// (for_marked) reads them per range instead of stepping over the rest.
 template <class F>
 void for_row(const Row& row, F&& f) {
   for (long k = 0, n = static_cast<long>(row.lon.size()); k < n; ++k) f(k);
