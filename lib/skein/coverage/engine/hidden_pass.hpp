@@ -69,11 +69,8 @@ inline double swept_footprint_cos_from_half(double c_le, double half) {
   const double out = c_le >= 0.0 ? c_le * half : c_le;  // past 90 deg the cap is a hemisphere or more: keep it
   return std::clamp(out - 1e-12, -1.0, 1.0);
 }
-inline double swept_footprint_cos_from_widened(double c_le, double cos_d) {
-  return swept_footprint_cos_from_half(c_le, swept_half_cos(cos_d));
-}
 inline double swept_footprint_cos(double cos_lambda, double eps_rad, double cos_d) {
-  return swept_footprint_cos_from_widened(widened_footprint_cos(cos_lambda, eps_rad), cos_d);
+  return swept_footprint_cos_from_half(widened_footprint_cos(cos_lambda, eps_rad), swept_half_cos(cos_d));
 }
 
 // The cubic Hermite interpolant of a satellite's Earth-fixed position between two instants, from the

@@ -17,7 +17,6 @@ struct StepPole {
 };
 
 // Satellite positions (Earth-fixed) for a window of sample instants.
-
 struct PositionBuffer {
   long first = 0, count = 0;
   int sats = 0;
