@@ -98,6 +98,36 @@ void set_fold1_figures(Target& t, const GapFigures& f1) {
   t.mean_response_time_s = f1.mean_response_time_s;
 }
 
+// The figures of one point: percent by fold from its in-view time bins `hist` (in_view_bins entries), required
+// radius from its worst k-th nearest cosines `worst_cos` (K entries), gaps, satellites in view and passes, over
+// a span of `span_s`. `gaps` is scratch for one fold's gaps.
+PointCoverage point_coverage(const GridPoint& point, const PointState& ps, const double* hist, const double* worst_cos,
+                             int K, double span_s, std::vector<float>& gaps) {
+  PointCoverage pc;
+  pc.point = point;
+  // Time with at least k in view: the bins above k - 1, summed from the top.
+  double at_least[max_fold_limit];
+  double above = 0.0;
+  for (int n = in_view_bins - 1; n >= 1; --n) {
+    above += hist[n];
+    if (n <= K) at_least[n - 1] = above;
+  }
+  for (int k = 0; k < K; ++k) {
+    pc.percent_by_fold.push_back(100.0 * at_least[k] / span_s);
+    pc.radius_deg_by_fold.push_back(std::acos(std::clamp(worst_cos[k], -1.0, 1.0)) * deg_per_rad);
+    gaps.clear();
+    for_each_gap(ps, k + 1, [&](float g) { gaps.push_back(g); });
+    pc.gaps_by_fold.push_back(point_gap_figures(gaps, span_s));
+  }
+  set_fold1_figures(pc, pc.gaps_by_fold.front());
+  pc.mean_in_view = ps.count_time / span_s;
+  pc.max_in_view = ps.max_in_view;
+  pc.passes = ps.passes;
+  // The time integral of the count in view is the sum of the passes' durations (within the span).
+  pc.mean_pass_s = ps.passes > 0 ? ps.count_time / static_cast<double>(ps.passes) : 0.0;
+  return pc;
+}
+
 }  // namespace
 
 std::vector<PooledGaps> pooled_gaps(const Grid& grid, const std::vector<size_t>& members,
@@ -231,7 +261,7 @@ std::vector<double> gap_cdf(const std::vector<PointState>& state, const Grid& gr
   return out;
 }
 
-void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointState>& state, const std::vector<double>& hist,
+void collect_metrics(CoverageResult& res, const Grid& grid, const std::vector<PointState>& state, const std::vector<double>& hist,
                      const std::vector<double>& worst_cos, const std::vector<std::int64_t>& worst_q, std::int64_t total_q,
                      const Sampling& smp, double band_width_deg) {
   const size_t P = grid.points.size();
@@ -258,39 +288,10 @@ void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointSta
   tbb::parallel_invoke(
       [&] {
         tbb::parallel_for(tbb::blocked_range<size_t>(0, P, 256), [&](const tbb::blocked_range<size_t>& range) {
-          std::vector<float> gaps;  // one point's gaps at one fold, reused over the range
-          for (size_t p = range.begin(); p < range.end(); ++p) {
-            const PointState& ps = state[p];
-            PointCoverage& pc = res.points[p];
-            pc.point = grid.points[p];
-            // Time with at least k in view: the bins above k - 1, summed from the top.
-            double at_least[max_fold_limit];
-            {
-              const double* h = &hist[p * in_view_bins];
-              double above = 0.0;
-              for (int n = in_view_bins - 1; n >= 1; --n) {
-                above += h[n];
-                if (n <= K) at_least[n - 1] = above;
-              }
-            }
-            pc.percent_by_fold.resize(static_cast<size_t>(K));
-            pc.radius_deg_by_fold.resize(static_cast<size_t>(K));
-            pc.gaps_by_fold.resize(static_cast<size_t>(K));
-            for (int k = 0; k < K; ++k) {
-              const size_t ku = static_cast<size_t>(k);
-              pc.percent_by_fold[ku] = 100.0 * at_least[k] / smp.span;
-              pc.radius_deg_by_fold[ku] = std::acos(std::clamp(worst_cos[p * static_cast<size_t>(K) + ku], -1.0, 1.0)) * deg_per_rad;
-              gaps.clear();
-              for_each_gap(ps, k + 1, [&](float g) { gaps.push_back(g); });
-              pc.gaps_by_fold[ku] = point_gap_figures(gaps, smp.span);
-            }
-            set_fold1_figures(pc, pc.gaps_by_fold.front());
-            pc.mean_in_view = ps.count_time / smp.span;
-            pc.max_in_view = ps.max_in_view;
-            pc.passes = ps.passes;
-            // The time integral of the count in view is the sum of the passes' durations (within the span).
-            pc.mean_pass_s = ps.passes > 0 ? ps.count_time / static_cast<double>(ps.passes) : 0.0;
-          }
+          std::vector<float> gaps;  // scratch, reused over the range
+          for (size_t p = range.begin(); p < range.end(); ++p)
+            res.points[p] = point_coverage(grid.points[p], state[p], &hist[p * in_view_bins],
+                                           &worst_cos[p * static_cast<size_t>(K)], K, smp.span, gaps);
         });
       },
       [&] {

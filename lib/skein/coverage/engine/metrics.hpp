@@ -39,7 +39,7 @@ std::vector<double> gap_cdf(const std::vector<PointState>& state, const Grid& gr
 // the area-weighted total and latitude bands, the worst-instant share and the least-covered point by fold, and
 // the pooled gap quantiles (fold 1). Gap figures are computed at every fold k = 1..K.
 // The gaps open at the end of the span were closed by the driver (close_gaps).
-void collect_metrics(CoverageResult& res, const Grid& grid, std::vector<PointState>& state, const std::vector<double>& hist,
+void collect_metrics(CoverageResult& res, const Grid& grid, const std::vector<PointState>& state, const std::vector<double>& hist,
                      const std::vector<double>& worst_cos, const std::vector<std::int64_t>& worst_q, std::int64_t total_q,
                      const Sampling& smp, double band_width_deg);
 
