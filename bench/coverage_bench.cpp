@@ -225,9 +225,9 @@ FloorCase floor_case(size_t n) {
     // A point within 20 deg of the sub-satellite point at t1.
     const double lat = std::asin(q1.uz) + (40.0 * uniform() - 20.0) * skein::rad_per_deg;
     const double lon = std::atan2(q1.uy, q1.ux) + (40.0 * uniform() - 20.0) * skein::rad_per_deg;
-    const PointGeo p{re * std::cos(lat) * std::cos(lon), re * std::cos(lat) * std::sin(lon), re * std::sin(lat),
-                     std::cos(lat) * std::cos(lon), std::cos(lat) * std::sin(lon), std::sin(lat),
-                     std::cos(lat) * std::cos(lon), std::cos(lat) * std::sin(lon), std::sin(lat)};
+    // On a sphere the vertical is the geocentric unit vector.
+    const double ux = std::cos(lat) * std::cos(lon), uy = std::cos(lat) * std::sin(lon), uz = std::sin(lat);
+    const PointGeo p{re * ux, re * uy, re * uz, ux, uy, uz, ux, uy, uz};
     if (polynomial_value(p, q0, c.g).value >= 0.0 || polynomial_value(p, q1, c.g).value < 0.0) continue;
     c.point.push_back(p);
     c.pos0.push_back(q0);
