@@ -5,7 +5,6 @@
 #include <cmath>
 
 #include <fmt/format.h>
-#include <tbb/parallel_for.h>
 
 #include "skein/atmosphere/harris_priester.hpp"
 #include "skein/budget/impulses.hpp"
@@ -15,6 +14,7 @@
 #include "skein/design/constellation.hpp"
 #include "skein/error.hpp"
 #include "skein/orbit/secular.hpp"
+#include "skein/parallel_items.hpp"
 #include "skein/time/sun.hpp"
 
 namespace skein {
@@ -557,7 +557,7 @@ BudgetResult compute_budget(const Design& design, const BudgetOptions& options) 
   }
   out.reentry_altitude_km = spec.reentry_altitude_km;
   out.shells.resize(design.shells.size());
-  tbb::parallel_for(size_t{0}, design.shells.size(), [&](size_t s) {
+  parallel_items(design.shells.size(), [&](size_t s) {
     // Every refusal of one shell's budget names the file and the shell.
     try {
       out.shells[s] =

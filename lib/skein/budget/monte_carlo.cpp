@@ -3,14 +3,12 @@
 #include <algorithm>
 #include <cassert>
 #include <cmath>
-#include <mutex>
 
 #include <fmt/format.h>
-#include <tbb/blocked_range.h>
-#include <tbb/parallel_for.h>
 
 #include "skein/budget/sample_random.hpp"
 #include "skein/error.hpp"
+#include "skein/parallel_items.hpp"
 
 namespace skein {
 namespace {
@@ -111,37 +109,25 @@ BudgetSpreadResult compute_budget_spread(const Design& design, const BudgetResul
   }
   std::vector<unsigned char> lower_bound(n * design.shells.size(), 0), grounded(n * design.shells.size(), 0);
 
-  // A refused sample: the lowest index wins, so the message does not depend on the thread count.
-  std::mutex failure_mutex;
-  size_t failed_index = n;
-  std::string failure;
-
-  tbb::parallel_for(tbb::blocked_range<size_t>(0, n), [&](const tbb::blocked_range<size_t>& range) {
-    for (size_t i = range.begin(); i != range.end(); ++i) {
-      for (size_t s = 0; s < design.shells.size(); ++s) {
-        BudgetDraw d = draw_budget_sample(spec, opt.seed, i, s);
-        d.bulge_weight = det.shells[s].bulge_weight;
-        try {
-          const ShellBudget b =
-              shell_budget_drawn(design, design.shells[s], det.solar, det.solar_cycle_phase_at_epoch, bo, d);
-          for (size_t k = 0; k < keys[s].size(); ++k) out.shells[s].figures[k].values[i] = figure_value(b, keys[s][k]);
-          lower_bound[i * design.shells.size() + s] = b.lifetime_lower_bound;
-          grounded[i * design.shells.size() + s] = !b.flyable();
-        } catch (const InputError& e) {
-          const std::lock_guard<std::mutex> lock(failure_mutex);
-          if (i < failed_index) {
-            failed_index = i;
-            failure = fmt::format("{}: shell {}: Monte Carlo sample {} (seed {}; phase shift {:.4f} cycles, solar "
-                                  "amplitude {:.4f}, Cd x {:.4f}, area x {:.4f}): {}",
-                                  design.file, design.shells[s].name, i, opt.seed, d.phase_shift_cycles,
-                                  d.solar_amplitude, d.drag_coefficient_factor, d.drag_area_factor, e.what());
-          }
-          break;
-        }
+  // A refused sample: the lowest index wins (parallel_items), so the message does not depend on the thread count.
+  parallel_items(n, [&](size_t i) {
+    for (size_t s = 0; s < design.shells.size(); ++s) {
+      BudgetDraw d = draw_budget_sample(spec, opt.seed, i, s);
+      d.bulge_weight = det.shells[s].bulge_weight;
+      try {
+        const ShellBudget b =
+            shell_budget_drawn(design, design.shells[s], det.solar, det.solar_cycle_phase_at_epoch, bo, d);
+        for (size_t k = 0; k < keys[s].size(); ++k) out.shells[s].figures[k].values[i] = figure_value(b, keys[s][k]);
+        lower_bound[i * design.shells.size() + s] = b.lifetime_lower_bound;
+        grounded[i * design.shells.size() + s] = !b.flyable();
+      } catch (const InputError& e) {
+        throw InputError(fmt::format("{}: shell {}: Monte Carlo sample {} (seed {}; phase shift {:.4f} cycles, solar "
+                                     "amplitude {:.4f}, Cd x {:.4f}, area x {:.4f}): {}",
+                                     design.file, design.shells[s].name, i, opt.seed, d.phase_shift_cycles,
+                                     d.solar_amplitude, d.drag_coefficient_factor, d.drag_area_factor, e.what()));
       }
     }
   });
-  if (failed_index < n) throw InputError(failure);
 
   // Reduce in index order.
   std::vector<double> fleet_dv(n, 0.0), fleet_prop(n, 0.0);

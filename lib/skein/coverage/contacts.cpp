@@ -5,13 +5,13 @@
 #include <cmath>
 
 #include <fmt/format.h>
-#include <tbb/parallel_for.h>
 
 #include "skein/angles.hpp"
 #include "skein/coverage/ground_geometry.hpp"
 #include "skein/design/constellation.hpp"
 #include "skein/error.hpp"
 #include "skein/orbit/propagate.hpp"
+#include "skein/parallel_items.hpp"
 #include "skein/time/epoch.hpp"
 
 namespace skein {
@@ -126,7 +126,7 @@ ContactResult compute_contacts(const Design& design, const ContactOptions& optio
   const PassSearchSpan span{res.span_s, res.sample_step_s, std::nullopt};
 
   res.satellites.resize(sats.size());
-  tbb::parallel_for(size_t{0}, sats.size(), [&](size_t s) {
+  parallel_items(sats.size(), [&](size_t s) {
     const SecularOrbit orbit = make_secular_orbit(design.earth, sats[s].elements);
     SatelliteContacts& out = res.satellites[s];
     out.id = sats[s].id;

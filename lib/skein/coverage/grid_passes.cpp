@@ -5,12 +5,11 @@
 #include <cmath>
 #include <map>
 
-#include <tbb/parallel_for.h>
-
 #include "skein/angles.hpp"
 #include "skein/coverage/pass_search.hpp"
 #include "skein/design/constellation.hpp"
 #include "skein/orbit/propagate.hpp"
+#include "skein/parallel_items.hpp"
 #include "skein/time/epoch.hpp"
 
 namespace skein {
@@ -193,7 +192,7 @@ void for_each_grid_pass(const Design& design, const Grid& grid, const GridPassOp
 
   const std::vector<Satellite> sats = expand_constellation(design);
   std::vector<Track> tracks(sats.size());
-  tbb::parallel_for(std::size_t{0}, sats.size(), [&](std::size_t s) {
+  parallel_items(sats.size(), [&](std::size_t s) {
     Track& tr = tracks[s];
     tr.orbit = make_secular_orbit(design.earth, sats[s].elements);
     tr.v_max_km_s = view_speed_bound_km_s(design.earth, tr.orbit);
@@ -220,7 +219,7 @@ void for_each_grid_pass(const Design& design, const Grid& grid, const GridPassOp
     tr.sure_rad = c < 1.0 ? std::acos(c) - e_high - reach_margin_rad : -1.0;
   });
 
-  tbb::parallel_for(std::size_t{0}, rows.size(), [&](std::size_t i) {
+  parallel_items(rows.size(), [&](std::size_t i) {
     const Row& row = rows[i];
     const std::size_t n = row.points.size();
     std::vector<ViewPoint> view(n);

@@ -3,13 +3,12 @@
 #include <algorithm>
 #include <cmath>
 
-#include <tbb/parallel_for.h>
-
 #include "skein/constants.hpp"
 #include "skein/coverage/ground_geometry.hpp"
 #include "skein/coverage/pass_search.hpp"
 #include "skein/design/constellation.hpp"
 #include "skein/orbit/propagate.hpp"
+#include "skein/parallel_items.hpp"
 #include "skein/time/epoch.hpp"
 
 namespace skein {
@@ -60,7 +59,7 @@ std::vector<SitePass> find_site_passes(const Design& design, const CoverageResul
   const double theta0 = greenwich_mean_sidereal_angle_rad(julian_date(design.epoch));
   const auto sats = expand_constellation(design);
   std::vector<std::vector<SitePass>> by_satellite(sats.size());
-  tbb::parallel_for(size_t{0}, sats.size(), [&](size_t s) {
+  parallel_items(sats.size(), [&](size_t s) {
     const SecularOrbit orbit = make_secular_orbit(design.earth, sats[s].elements);
     const auto lists = find_view_intervals(design.earth, orbit, theta0, points, span);
     for (size_t k = 0; k < lists.size(); ++k)

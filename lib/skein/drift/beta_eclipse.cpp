@@ -5,14 +5,13 @@
 #include <cmath>
 
 #include <fmt/format.h>
-#include <tbb/blocked_range.h>
-#include <tbb/parallel_for.h>
 
 #include "skein/angles.hpp"
 #include "skein/constants.hpp"
 #include "skein/design/plane_nodes.hpp"
 #include "skein/error.hpp"
 #include "skein/orbit/secular.hpp"
+#include "skein/parallel_items.hpp"
 #include "skein/time/sun.hpp"
 
 namespace skein {
@@ -166,49 +165,47 @@ BetaEclipseResult compute_beta_eclipse(const Design& design, const BetaEclipseOp
   // Planes are independent: computed in parallel, each into its own slot, so the result does not depend on the
   // thread count.
   const std::vector<PlaneNode> nodes = plane_nodes(design);
-  tbb::parallel_for(tbb::blocked_range<size_t>(0, nodes.size(), 1), [&](const tbb::blocked_range<size_t>& range) {
-    for (size_t n = range.begin(); n != range.end(); ++n) {
-      const PlaneNode& node = nodes[n];
-      const Shell& sh = design.shells[static_cast<size_t>(node.shell)];
-      const ShellBetaEclipse& shell = out.shells[static_cast<size_t>(node.shell)];
-      const SecularRates& rate = rates[static_cast<size_t>(node.shell)];
-      const double i = sh.inclination_deg * rad_per_deg;
-      PlaneBetaEclipse plane;
-      plane.plane = node.plane;
-      plane.raan0_deg = node.raan_deg;
-      plane.beta_min_deg = 90.0;
-      plane.beta_max_deg = -90.0;
-      for (int k = 0; k < samples; ++k) {
-        const double day = k * options.step_days;
-        const double dt_s = day * seconds_per_day;
-        const Eigen::Vector3d& s_hat = sun[static_cast<size_t>(k)];
-        const double raan = wrap_two_pi(node.raan_deg * rad_per_deg + rate.raan_rad_s * dt_s);
-        BetaEclipseSample x;
-        x.day = day;
-        const double beta = beta_angle_rad(i, raan, s_hat);
-        x.beta_deg = beta * deg_per_rad;
-        if (shell.circular) {
-          x.eclipse_fraction = circular_eclipse_fraction(sh.a_km, earth.radius_km, beta);
-          x.eclipse_min_per_orbit = x.longest_eclipse_min = x.eclipse_fraction * shell.period_s / 60.0;
-        } else {
-          const MeanElements el{sh.a_km, sh.e, i, raan, wrap_two_pi(sh.argp_deg * rad_per_deg + rate.argp_rad_s * dt_s), 0.0};
-          const ShadowShares share = sampled_shadow_shares(earth, el, s_hat, options.orbit_samples);
-          x.eclipse_fraction = share.total;
-          x.eclipse_min_per_orbit = share.total * shell.period_s / 60.0;
-          x.longest_eclipse_min = share.longest_arc * shell.period_s / 60.0;
-        }
-        plane.beta_min_deg = std::min(plane.beta_min_deg, x.beta_deg);
-        plane.beta_max_deg = std::max(plane.beta_max_deg, x.beta_deg);
-        if (x.longest_eclipse_min > plane.longest_eclipse_min) {
-          plane.longest_eclipse_min = x.longest_eclipse_min;
-          plane.longest_eclipse_day = day;
-        }
-        plane.max_eclipse_fraction = std::max(plane.max_eclipse_fraction, x.eclipse_fraction);
-        if (x.eclipse_fraction == 0.0) plane.eclipse_free_days += options.step_days;
-        plane.samples.push_back(x);
+  parallel_items(nodes.size(), [&](size_t n) {
+    const PlaneNode& node = nodes[n];
+    const Shell& sh = design.shells[static_cast<size_t>(node.shell)];
+    const ShellBetaEclipse& shell = out.shells[static_cast<size_t>(node.shell)];
+    const SecularRates& rate = rates[static_cast<size_t>(node.shell)];
+    const double i = sh.inclination_deg * rad_per_deg;
+    PlaneBetaEclipse plane;
+    plane.plane = node.plane;
+    plane.raan0_deg = node.raan_deg;
+    plane.beta_min_deg = 90.0;
+    plane.beta_max_deg = -90.0;
+    for (int k = 0; k < samples; ++k) {
+      const double day = k * options.step_days;
+      const double dt_s = day * seconds_per_day;
+      const Eigen::Vector3d& s_hat = sun[static_cast<size_t>(k)];
+      const double raan = wrap_two_pi(node.raan_deg * rad_per_deg + rate.raan_rad_s * dt_s);
+      BetaEclipseSample x;
+      x.day = day;
+      const double beta = beta_angle_rad(i, raan, s_hat);
+      x.beta_deg = beta * deg_per_rad;
+      if (shell.circular) {
+        x.eclipse_fraction = circular_eclipse_fraction(sh.a_km, earth.radius_km, beta);
+        x.eclipse_min_per_orbit = x.longest_eclipse_min = x.eclipse_fraction * shell.period_s / 60.0;
+      } else {
+        const MeanElements el{sh.a_km, sh.e, i, raan, wrap_two_pi(sh.argp_deg * rad_per_deg + rate.argp_rad_s * dt_s), 0.0};
+        const ShadowShares share = sampled_shadow_shares(earth, el, s_hat, options.orbit_samples);
+        x.eclipse_fraction = share.total;
+        x.eclipse_min_per_orbit = share.total * shell.period_s / 60.0;
+        x.longest_eclipse_min = share.longest_arc * shell.period_s / 60.0;
       }
-      out.shells[static_cast<size_t>(node.shell)].planes[static_cast<size_t>(node.plane)] = std::move(plane);
+      plane.beta_min_deg = std::min(plane.beta_min_deg, x.beta_deg);
+      plane.beta_max_deg = std::max(plane.beta_max_deg, x.beta_deg);
+      if (x.longest_eclipse_min > plane.longest_eclipse_min) {
+        plane.longest_eclipse_min = x.longest_eclipse_min;
+        plane.longest_eclipse_day = day;
+      }
+      plane.max_eclipse_fraction = std::max(plane.max_eclipse_fraction, x.eclipse_fraction);
+      if (x.eclipse_fraction == 0.0) plane.eclipse_free_days += options.step_days;
+      plane.samples.push_back(x);
     }
+    out.shells[static_cast<size_t>(node.shell)].planes[static_cast<size_t>(node.plane)] = std::move(plane);
   });
   return out;
 }

@@ -10,10 +10,10 @@
 #include <thread>
 
 #include <fmt/format.h>
-#include <tbb/parallel_for.h>
 
 #include "skein/error.hpp"
 #include "skein/io/atomic_write.hpp"
+#include "skein/parallel_items.hpp"
 #include "skein/sweep/journal.hpp"
 #include "skein/sweep/rank_share.hpp"
 #include "skein/sweep/sweep_run.hpp"
@@ -127,7 +127,7 @@ SearchRunResult run_search(const SearchRunOptions& options, RankGroup& group, co
       std::string ruled_out;  // rank 0's screen of the pending layouts: the indices it rules out
       if (rank == 0) {
         std::vector<ScreenOutcome> outcomes(pending.size());
-        tbb::parallel_for(size_t{0}, pending.size(), [&](size_t q) {
+        parallel_items(pending.size(), [&](size_t q) {
           outcomes[q] = screen_layout(space, set.layouts[pending[q]], search.settings.screen, eval);
         });
         for (size_t q = 0; q < pending.size(); ++q) {

@@ -5,9 +5,9 @@
 #include <optional>
 
 #include <fmt/format.h>
-#include <tbb/parallel_for.h>
 
 #include "skein/error.hpp"
+#include "skein/parallel_items.hpp"
 #include "skein/search/cap_screen.hpp"
 #include "skein/sweep/evaluate_layout.hpp"
 #include "skein/sweep/results_rows.hpp"
@@ -100,7 +100,7 @@ void bracket_caps(const Search& search, const LayoutSet& set, SearchPlan& plan) 
   std::vector<std::vector<size_t>> groups;
   for (auto& [key, members] : grouped) groups.push_back(std::move(members));
   std::vector<long> evaluations(groups.size(), 0);
-  tbb::parallel_for(size_t{0}, groups.size(), [&](size_t g) {
+  parallel_items(groups.size(), [&](size_t g) {
     std::vector<size_t>& members = groups[g];
     const auto alt = [&](size_t i) { return set.layouts[i].shells.front().altitude_km; };
     std::stable_sort(members.begin(), members.end(), [&](size_t a, size_t b) { return alt(a) < alt(b); });
@@ -153,7 +153,7 @@ SearchPlan plan_search(const Search& search, const LayoutSet& set, const PlanOpt
   plan.layouts.resize(set.layouts.size());
   const bool bracket = options.bracket_altitude && !set.layouts.empty() && !set.layouts.front().shells.empty() &&
                        search.space.base.coverage.grid == GridKind::global;
-  tbb::parallel_for(size_t{0}, set.layouts.size(),
+  parallel_items(set.layouts.size(),
                     [&](size_t i) { plan.layouts[i] = plan_one(search, set.layouts[i], bracket); });
   for (const PlannedLayout& p : plan.layouts) plan.cap_evaluations += p.cap_evaluated;
   if (bracket) bracket_caps(search, set, plan);

@@ -3,10 +3,10 @@
 #include <mutex>
 
 #include <fmt/format.h>
-#include <tbb/parallel_for.h>
 
 #include "skein/coverage/evaluate.hpp"
 #include "skein/error.hpp"
+#include "skein/parallel_items.hpp"
 #include "skein/sweep/results_rows.hpp"
 
 namespace skein {
@@ -14,17 +14,15 @@ namespace skein {
 void evaluate_layouts(const Sweep& sweep, const LayoutSet& set, const std::vector<size_t>& todo, const RowSink& sink,
                       const LayoutEvaluationOptions& options, std::atomic<long>* finished) {
   std::mutex sink_mutex;
-  tbb::parallel_for(tbb::blocked_range<size_t>(0, todo.size(), 1), [&](const tbb::blocked_range<size_t>& r) {
-    for (size_t k = r.begin(); k != r.end(); ++k) {
-      const Layout& l = set.layouts.at(todo[k]);
-      const LayoutMetrics m = evaluate_layout(sweep, l, options);
-      const std::string row = encode_row(layout_row(sweep, l, m));
-      {
-        std::lock_guard<std::mutex> lock(sink_mutex);
-        sink(l.index, row);
-      }
-      if (finished) finished->fetch_add(1);
+  parallel_items(todo.size(), [&](size_t k) {
+    const Layout& l = set.layouts.at(todo[k]);
+    const LayoutMetrics m = evaluate_layout(sweep, l, options);
+    const std::string row = encode_row(layout_row(sweep, l, m));
+    {
+      std::lock_guard<std::mutex> lock(sink_mutex);
+      sink(l.index, row);
     }
+    if (finished) finished->fetch_add(1);
   });
 }
 

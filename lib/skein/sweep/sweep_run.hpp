@@ -16,7 +16,9 @@ using RowSink = std::function<void(size_t index, const std::string& row)>;
 
 // Evaluate set.layouts[i] for every i in `todo`, in parallel over layouts (and, inside each, over ground
 // points). Rows reach `sink` in the order they finish. The row content does not depend on the order or the
-// thread count. `finished`, when set, counts finished layouts.
+// thread count. `finished`, when set, counts finished layouts. When an evaluation or the sink throws, the
+// layouts already running finish whole, no layout after the lowest failing one starts, and that failure is
+// rethrown (parallel_items).
 void evaluate_layouts(const Sweep& sweep, const LayoutSet& set, const std::vector<size_t>& todo, const RowSink& sink,
                       const LayoutEvaluationOptions& options = {}, std::atomic<long>* finished = nullptr);
 
