@@ -16,9 +16,12 @@
 #include <cstddef>
 #include <exception>
 #include <mutex>
+#include <stdexcept>
+#include <string>
 
 #include <tbb/blocked_range.h>
 #include <tbb/parallel_for.h>
+#include <tbb/task_group.h>
 
 namespace skein {
 
@@ -43,6 +46,15 @@ void parallel_items(std::size_t count, const Body& body) {
     }
   });
   if (failure) std::rethrow_exception(failure);
+}
+
+// For code whose own nested loops a caller's cancelled task group could cut short (a caller that used a plain
+// tbb::parallel_for and let an exception out): call before reading what those loops made. It throws when the
+// task group this thread runs in is being cancelled, so half-made results are never read; the caller's own
+// exception is the one that reaches the top.
+inline void stop_if_cancelled(const char* where) {
+  if (tbb::is_current_task_group_canceling())
+    throw std::runtime_error(std::string(where) + ": stopped, the enclosing parallel work was cancelled");
 }
 
 }  // namespace skein

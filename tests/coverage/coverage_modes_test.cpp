@@ -3,6 +3,7 @@
 #include <doctest/doctest.h>
 
 #include <tbb/global_control.h>
+#include <tbb/task_group.h>
 
 #include <utility>
 
@@ -162,4 +163,28 @@ TEST_CASE("coverage modes: with the daylight mask culled and exhaustive still ag
     darker += lit.points[i].percent_by_fold[0] < plain.points[i].percent_by_fold[0] - 1e-9;
   }
   CHECK(darker > 10);  // the mask does remove coverage somewhere
+}
+
+TEST_CASE("coverage: run inside a task group being cancelled, the evaluation throws instead of reading half-made rows") {
+  // A caller that lets an exception out of a plain TBB loop cancels the task group the evaluation runs in, and
+  // its nested loops (rows, metrics) then skip their work and return without error. The evaluation must notice
+  // (stop_if_cancelled) and throw, never build figures from the skipped rows. Made certain here by cancelling
+  // the group from inside the task before the evaluation starts.
+  const Design d = mixed_design();
+  std::string message;
+  bool returned = false;
+  tbb::task_group group;
+  group.run_and_wait([&] {
+    group.cancel();
+    try {
+      (void)evaluate_coverage(d, CoverageOptions{});
+      returned = true;
+    } catch (const std::runtime_error& e) {
+      message = e.what();
+    }
+  });
+  CHECK(!returned);
+  CHECK(message.find("stopped, the enclosing parallel work was cancelled") != std::string::npos);
+  // The same evaluation outside any cancelled group runs whole.
+  CHECK(evaluate_coverage(d, CoverageOptions{}).points.size() > 0);
 }

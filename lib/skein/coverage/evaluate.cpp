@@ -28,6 +28,7 @@
 #include "skein/design/constellation.hpp"
 #include "skein/error.hpp"
 #include "skein/orbit/propagate.hpp"
+#include "skein/parallel_items.hpp"
 #include "skein/time/epoch.hpp"
 
 // The coverage evaluator's driver: resolve the settings, build the grid and the satellite orbits, loop over
@@ -243,6 +244,7 @@ CoverageResult evaluate_coverage(const Design& design, const CoveragePlan& plan,
           },
           join);
     }
+    stop_if_cancelled("coverage evaluation");  // before reading what the rows made
     pair_tests += part.pair_tests;
     distance_tests += part.distance_tests;
     fallbacks += part.fallbacks;

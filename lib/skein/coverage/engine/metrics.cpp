@@ -12,6 +12,8 @@
 #include <tbb/parallel_for.h>
 #include <tbb/parallel_invoke.h>
 
+#include "skein/parallel_items.hpp"
+
 namespace skein::coverage_engine {
 
 double weighted_quantile(std::vector<std::pair<float, double>>& sample, double q) {
@@ -311,6 +313,7 @@ void collect_metrics(CoverageResult& res, const Grid& grid, const std::vector<Po
                 pooled_gaps(grid, members[static_cast<size_t>(b)], state, K, pools.local(), nullptr);
         });
       });
+  stop_if_cancelled("coverage metrics");  // before reading the points those loops filled
   for (size_t p = 0; p < P; ++p) {
     const PointCoverage& pc = res.points[p];
     for (int k = 0; k < K; ++k)
