@@ -153,8 +153,7 @@ SearchPlan plan_search(const Search& search, const LayoutSet& set, const PlanOpt
   plan.layouts.resize(set.layouts.size());
   const bool bracket = options.bracket_altitude && !set.layouts.empty() && !set.layouts.front().shells.empty() &&
                        search.space.base.coverage.grid == GridKind::global;
-  parallel_items(set.layouts.size(),
-                    [&](size_t i) { plan.layouts[i] = plan_one(search, set.layouts[i], bracket); });
+  parallel_items(set.layouts.size(), [&](size_t i) { plan.layouts[i] = plan_one(search, set.layouts[i], bracket); });
   for (const PlannedLayout& p : plan.layouts) plan.cap_evaluations += p.cap_evaluated;
   if (bracket) bracket_caps(search, set, plan);
   for (const PlannedLayout& p : plan.layouts) {

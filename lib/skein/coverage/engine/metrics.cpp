@@ -158,7 +158,7 @@ std::vector<PooledGaps> pooled_gaps(const Grid& grid, const std::vector<size_t>&
 }
 
 CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::vector<size_t>& members,
-                            const std::vector<PooledGaps>& pooled, int K, double total_weight) {
+                            const std::vector<PooledGaps>& pooled, int K) {
   CoverageAggregate a;
   a.percent_by_fold.assign(static_cast<size_t>(K), 0.0);
   a.gaps_by_fold.assign(static_cast<size_t>(K), GapFigures{});
@@ -172,7 +172,7 @@ CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::ve
     a.max_in_view = std::max(a.max_in_view, p.max_in_view);
   }
   a.points = static_cast<long>(members.size());
-  a.area_weight = w / total_weight;
+  a.area_weight = w;  // the grid's weights sum to 1
   if (w > 0.0) {
     for (double& v : a.percent_by_fold) v /= w;
     a.mean_in_view /= w;
@@ -337,13 +337,13 @@ void collect_metrics(CoverageResult& res, const Grid& grid, const std::vector<Po
     res.worst_instant_covered_percent.push_back(
         total_q > 0 ? 100.0 * static_cast<double>(worst_q[static_cast<size_t>(k)]) / static_cast<double>(total_q) : 0.0);
 
-  res.total = aggregate(res.points, all, total_pooled, K, 1.0);
+  res.total = aggregate(res.points, all, total_pooled, K);
   for (int b = 0; b < nbands; ++b) {
     if (members[static_cast<size_t>(b)].empty()) continue;
     LatitudeBand band;
     band.lat_min_deg = -90.0 + b * band_width_deg;
     band.lat_max_deg = band.lat_min_deg + band_width_deg;
-    band.metrics = aggregate(res.points, members[static_cast<size_t>(b)], band_pooled[static_cast<size_t>(b)], K, 1.0);
+    band.metrics = aggregate(res.points, members[static_cast<size_t>(b)], band_pooled[static_cast<size_t>(b)], K);
     res.bands.push_back(std::move(band));
   }
 }

@@ -26,7 +26,7 @@ std::vector<PooledGaps> pooled_gaps(const Grid& grid, const std::vector<size_t>&
                                     std::vector<std::pair<float, double>>& pooled, const std::vector<double>* fold1_cdf);
 // Area-weighted aggregate of the points `members` (metrics.cpp), with their pooled gap figures.
 CoverageAggregate aggregate(const std::vector<PointCoverage>& pts, const std::vector<size_t>& members,
-                            const std::vector<PooledGaps>& pooled, int K, double total_weight);
+                            const std::vector<PooledGaps>& pooled, int K);
 // The 0, 1, ..., 100 % area-weighted quantiles of every point's fold-1 gaps (empty when there are none): the
 // value where the cumulative weight of the gaps in ascending order first reaches q of the total, as a walk
 // over the sorted gaps gives it, but without sorting them all: the weights are summed into buckets of the
